@@ -1,0 +1,200 @@
+package menu
+
+import (
+	"encoding/csv"
+	"math"
+	"math/rand"
+	"os"
+	"strconv"
+	"testing"
+)
+
+// loadIFCT reads the IFCT 2017 extract (Longvah T et al., Indian Food Composition
+// Tables 2017, National Institute of Nutrition, Hyderabad) so the tests run on
+// real food figures rather than invented ones. Portions are a uniform 30 g
+// except where a test sets its own; liquid/portable flags by food group.
+func loadIFCT(t testing.TB) []Food {
+	t.Helper()
+	f, err := os.Open("../../testdata/ifct2017/foods.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	rows, err := csv.NewReader(f).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	num := func(s string) float64 {
+		v, err := strconv.ParseFloat(s, 64)
+		if err != nil {
+			t.Fatalf("bad number %q in extract: %v", s, err)
+		}
+		return v
+	}
+	var foods []Food
+	for i, r := range rows[1:] {
+		foods = append(foods, Food{
+			ID: int64(i + 1), Name: r[1],
+			ChoPer100: num(r[4]), ProtPer100: num(r[5]), FatPer100: num(r[6]), FibrePer100: num(r[7]),
+			PortionName: "portion", PortionG: 30,
+			Liquid:   r[2] == "Milk and Milk Products" || r[1] == "Coconut Water" || r[1] == "Sugarcane, juice",
+			Portable: r[2] == "Fruits" || r[2] == "Sugars",
+		})
+	}
+	if len(foods) < 30 {
+		t.Fatalf("extract has %d foods, want a few dozen", len(foods))
+	}
+	return foods
+}
+
+// sumFromFigures recomputes a suggestion's carbohydrate from the food figures
+// and grams, independently of the Item.ChoG the package filled in.
+func sumFromFigures(s Suggestion) float64 {
+	sum := 0.0
+	for _, it := range s.Items {
+		sum += it.Portions * it.Food.PortionG * it.Food.ChoPer100 / 100
+	}
+	return sum
+}
+
+func TestBananaOnlyWorkedExample(t *testing.T) {
+	// Ripe banana (robusta), 23.63 g carbohydrate per 100 g: Longvah T et al.,
+	// Indian Food Composition Tables 2017, code E012. 60 g is met by 2.5 bananas
+	// of 100 g: 250 g × 23.63 / 100 = 59.1 g, 0.9 g short, inside ±6 g.
+	banana := Food{ID: 1, Name: "Banana", ChoPer100: 23.63, FibrePer100: 1.94, PortionName: "1 medium", PortionG: 100, Portable: true}
+	s, ok := Suggest([]Food{banana}, Need{ChoG: 60})
+	if !ok || len(s.Items) != 1 {
+		t.Fatalf("Suggest = %+v, %v; want one item", s, ok)
+	}
+	if s.Items[0].Portions != 2.5 || math.Abs(s.ChoG-59.075) > 1e-9 {
+		t.Errorf("got %v portions, %.3f g; want 2.5 portions, 59.075 g", s.Items[0].Portions, s.ChoG)
+	}
+	if s.ToleranceG != 6 {
+		t.Errorf("tolerance = %v, want 6 (10%% of 60 g)", s.ToleranceG)
+	}
+}
+
+func TestTolerance(t *testing.T) {
+	for _, c := range []struct{ target, want float64 }{{20, 5}, {50, 5}, {80, 8}, {150, 15}} {
+		if got := Tolerance(c.target); got != c.want {
+			t.Errorf("Tolerance(%v) = %v, want %v", c.target, got, c.want)
+		}
+	}
+}
+
+func TestLowFibrePreferred(t *testing.T) {
+	foods := loadIFCT(t)
+	s, ok := Suggest(foods, Need{ChoG: 120, LowFibre: true})
+	if !ok {
+		t.Fatal("no suggestion for 120 g")
+	}
+	for _, it := range s.Items {
+		// Whole-wheat flour (atta), 11.36 g fibre per 64.17 g carbohydrate
+		// (IFCT 2017 A019), is not low-fibre; refined rice and flour are.
+		if it.FibreG > LowFibreRatio*it.ChoG+1e-9 {
+			t.Errorf("load-day suggestion includes higher-fibre %s (%.1f g fibre for %.1f g carbohydrate)", it.Food.Name, it.FibreG, it.ChoG)
+		}
+	}
+	var atta Food
+	for _, f := range foods {
+		if f.Name == "Wheat flour, atta" {
+			atta = f
+		}
+	}
+	if IsLowFibre(atta) {
+		t.Error("whole-wheat flour (IFCT 2017 A019: 11.36 g fibre, 64.17 g carbohydrate) counted as low-fibre")
+	}
+}
+
+func TestOnTheMoveUsesDrinksAndPortables(t *testing.T) {
+	foods := loadIFCT(t)
+	s, ok := Suggest(foods, Need{ChoG: 45, OnTheMove: true})
+	if !ok {
+		t.Fatal("no in-event suggestion for 45 g")
+	}
+	for _, it := range s.Items {
+		if !it.Food.Liquid && !it.Food.Portable {
+			t.Errorf("in-event suggestion includes %s, neither a drink nor portable", it.Food.Name)
+		}
+	}
+	// Only staples on the list: nothing fits on the move.
+	var staples []Food
+	for _, f := range foods {
+		if !f.Liquid && !f.Portable {
+			staples = append(staples, f)
+		}
+	}
+	if _, ok := Suggest(staples, Need{ChoG: 45, OnTheMove: true}); ok {
+		t.Error("in-event suggestion made from a list without drinks or portable foods")
+	}
+}
+
+func TestNoSuggestionForNothing(t *testing.T) {
+	foods := loadIFCT(t)
+	for _, v := range []float64{0, -5, math.NaN(), math.Inf(1)} {
+		if s, ok := Suggest(foods, Need{ChoG: v}); ok || len(s.Items) != 0 {
+			t.Errorf("Suggest(%v) = %+v, %v; want none", v, s, ok)
+		}
+	}
+	if _, ok := Suggest(nil, Need{ChoG: 50}); ok {
+		t.Error("suggestion from an empty foods list")
+	}
+}
+
+// Property: every suggestion made adds up to its target within the stated
+// tolerance, has 1–3 distinct foods, and a positive amount of each.
+func TestSuggestionsAddUp(t *testing.T) {
+	foods := loadIFCT(t)
+	rng := rand.New(rand.NewSource(4))
+	for i := 0; i < 400; i++ {
+		need := Need{ChoG: 5 + rng.Float64()*245, LowFibre: rng.Intn(2) == 0, OnTheMove: rng.Intn(4) == 0}
+		s, ok := Suggest(foods, need)
+		if !ok {
+			t.Errorf("no suggestion for %+v", need)
+			continue
+		}
+		if n := len(s.Items); n < 1 || n > 3 {
+			t.Errorf("%+v: %d items", need, n)
+		}
+		seen := map[int64]bool{}
+		for _, it := range s.Items {
+			if seen[it.Food.ID] || !(it.Portions > 0) || !(it.Grams > 0) {
+				t.Errorf("%+v: bad item %+v", need, it)
+			}
+			seen[it.Food.ID] = true
+		}
+		if d := math.Abs(sumFromFigures(s) - need.ChoG); d > Tolerance(need.ChoG)+1e-9 {
+			t.Errorf("%+v: suggestion %q gives %.1f g, off by %.1f g (tolerance %.1f g)", need, s.Text(), sumFromFigures(s), d, Tolerance(need.ChoG))
+		}
+	}
+}
+
+func TestSuggestDayVaries(t *testing.T) {
+	foods := loadIFCT(t)
+	needs := []Need{{ChoG: 100}, {ChoG: 100}, {ChoG: 100}}
+	out, oks := SuggestDay(foods, needs)
+	for i := range out {
+		if !oks[i] {
+			t.Fatalf("feed %d: no suggestion", i)
+		}
+		if d := math.Abs(sumFromFigures(out[i]) - 100); d > Tolerance(100) {
+			t.Errorf("feed %d off by %.1f g", i, d)
+		}
+	}
+	for i := 1; i < len(out); i++ {
+		for _, a := range out[i].Items {
+			for _, b := range out[i-1].Items {
+				if a.Food.ID == b.Food.ID {
+					t.Errorf("feeds %d and %d both suggest %s", i-1, i, a.Food.Name)
+				}
+			}
+		}
+	}
+}
+
+func BenchmarkSuggest(b *testing.B) {
+	foods := loadIFCT(b)
+	for b.Loop() {
+		Suggest(foods, Need{ChoG: 173, LowFibre: true})
+	}
+}
