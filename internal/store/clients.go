@@ -1,0 +1,161 @@
+package store
+
+import (
+	"context"
+	"time"
+
+	"github.com/jackc/pgx/v5"
+)
+
+// Sexes as used by physiology equations.
+const (
+	SexFemale = "female"
+	SexMale   = "male"
+)
+
+// Client is an athlete the practice works with.
+type Client struct {
+	ID          int64
+	Name        string
+	DateOfBirth *time.Time // date only
+	Sex         string     // female | male, for physiology equations
+	HeightCm    *float64
+	Sport       string
+	Notes       string
+	Cautions    string // recorded cautions (e.g. type 1 diabetes), shown prominently
+	ArchivedAt  *time.Time
+	CreatedAt   time.Time
+	UpdatedAt   time.Time
+}
+
+// Archived reports whether the client is archived.
+func (c Client) Archived() bool { return c.ArchivedAt != nil }
+
+// AgeOn gives the client's age in whole years on a date, or -1 when the date
+// of birth is not recorded.
+func (c Client) AgeOn(day time.Time) int {
+	if c.DateOfBirth == nil {
+		return -1
+	}
+	b := *c.DateOfBirth
+	age := day.Year() - b.Year()
+	if day.Month() < b.Month() || (day.Month() == b.Month() && day.Day() < b.Day()) {
+		age--
+	}
+	return age
+}
+
+// ClientRow is a client as listed, with the latest body mass and next event.
+type ClientRow struct {
+	Client
+	LatestMassKg   *float64
+	LatestMassOn   *time.Time
+	NextEventName  string
+	NextEventStart *time.Time
+	NextEventZone  string
+}
+
+// Which clients a list shows.
+const (
+	ShowActive   = "active"
+	ShowArchived = "archived"
+	ShowAll      = "all"
+)
+
+// ClientFilter narrows the client list.
+type ClientFilter struct {
+	Query string // matched anywhere in name or sport, ignoring case
+	Show  string // ShowActive (default), ShowArchived or ShowAll
+}
+
+const clientCols = `c.id, c.name, c.date_of_birth, c.sex, c.height_cm::float8, c.sport, c.notes, c.cautions, c.archived_at, c.created_at, c.updated_at`
+
+func clientDest(c *Client) []any {
+	return []any{&c.ID, &c.Name, &c.DateOfBirth, &c.Sex, &c.HeightCm, &c.Sport, &c.Notes, &c.Cautions, &c.ArchivedAt, &c.CreatedAt, &c.UpdatedAt}
+}
+
+// ListClients lists clients by name with their latest body mass and next event.
+func (s *Store) ListClients(ctx context.Context, f ClientFilter) ([]ClientRow, error) {
+	show := f.Show
+	if show != ShowArchived && show != ShowAll {
+		show = ShowActive
+	}
+	rows, err := s.Pool.Query(ctx, `SELECT `+clientCols+`, bm.mass_kg::float8, bm.measured_on, coalesce(ev.name, ''), ev.starts_at, coalesce(ev.time_zone, '')
+		FROM clients c
+		LEFT JOIN LATERAL (SELECT mass_kg, measured_on FROM body_mass WHERE client_id = c.id
+			ORDER BY measured_on DESC, id DESC LIMIT 1) bm ON true
+		LEFT JOIN LATERAL (SELECT name, starts_at, time_zone FROM events WHERE client_id = c.id AND starts_at >= now() - interval '1 day'
+			ORDER BY starts_at LIMIT 1) ev ON true
+		WHERE ($1 = '' OR c.name ILIKE $2 OR c.sport ILIKE $2)
+		  AND ($3 = 'all' OR ($3 = 'active') = (c.archived_at IS NULL))
+		ORDER BY lower(c.name), c.id`, f.Query, likePattern(f.Query), show)
+	if err != nil {
+		return nil, err
+	}
+	return pgx.CollectRows(rows, func(r pgx.CollectableRow) (ClientRow, error) {
+		var c ClientRow
+		dest := append(clientDest(&c.Client), &c.LatestMassKg, &c.LatestMassOn, &c.NextEventName, &c.NextEventStart, &c.NextEventZone)
+		err := r.Scan(dest...)
+		return c, err
+	})
+}
+
+// ClientByID loads one client, archived or not.
+func (s *Store) ClientByID(ctx context.Context, id int64) (Client, error) {
+	var c Client
+	err := s.Pool.QueryRow(ctx, `SELECT `+clientCols+` FROM clients c WHERE c.id = $1`, id).Scan(clientDest(&c)...)
+	return c, notFound(err)
+}
+
+func clientDetail(c *Client) map[string]any {
+	return map[string]any{"name": c.Name, "sex": c.Sex, "height_cm": c.HeightCm, "sport": c.Sport, "cautions": c.Cautions}
+}
+
+// CreateClient adds a client; c.ID and timestamps are filled in.
+func (s *Store) CreateClient(ctx context.Context, actor Actor, c *Client) error {
+	return s.inTx(ctx, func(tx pgx.Tx) error {
+		if err := tx.QueryRow(ctx, `INSERT INTO clients (name, date_of_birth, sex, height_cm, sport, notes, cautions)
+			VALUES ($1, $2, $3, $4, $5, $6, $7) RETURNING id, created_at, updated_at`,
+			c.Name, c.DateOfBirth, c.Sex, c.HeightCm, c.Sport, c.Notes, c.Cautions).Scan(&c.ID, &c.CreatedAt, &c.UpdatedAt); err != nil {
+			return err
+		}
+		return AuditTx(ctx, tx, actor, "create", "client", c.ID, clientDetail(c))
+	})
+}
+
+// UpdateClient saves a client's details (not its archived state).
+func (s *Store) UpdateClient(ctx context.Context, actor Actor, c *Client) error {
+	return s.inTx(ctx, func(tx pgx.Tx) error {
+		if err := execOne(ctx, tx, `UPDATE clients SET name = $2, date_of_birth = $3, sex = $4, height_cm = $5,
+			sport = $6, notes = $7, cautions = $8, updated_at = now() WHERE id = $1`,
+			c.ID, c.Name, c.DateOfBirth, c.Sex, c.HeightCm, c.Sport, c.Notes, c.Cautions); err != nil {
+			return err
+		}
+		return AuditTx(ctx, tx, actor, "update", "client", c.ID, clientDetail(c))
+	})
+}
+
+// ArchiveClient hides a client from the default list; nothing is deleted.
+func (s *Store) ArchiveClient(ctx context.Context, actor Actor, id int64) error {
+	return s.setArchived(ctx, actor, id, true)
+}
+
+// UnarchiveClient brings an archived client back.
+func (s *Store) UnarchiveClient(ctx context.Context, actor Actor, id int64) error {
+	return s.setArchived(ctx, actor, id, false)
+}
+
+func (s *Store) setArchived(ctx context.Context, actor Actor, id int64, archive bool) error {
+	return s.inTx(ctx, func(tx pgx.Tx) error {
+		q := `UPDATE clients SET archived_at = NULL, updated_at = now() WHERE id = $1`
+		action := "unarchive"
+		if archive {
+			q = `UPDATE clients SET archived_at = coalesce(archived_at, now()), updated_at = now() WHERE id = $1`
+			action = "archive"
+		}
+		if err := execOne(ctx, tx, q, id); err != nil {
+			return err
+		}
+		return AuditTx(ctx, tx, actor, action, "client", id, nil)
+	})
+}
