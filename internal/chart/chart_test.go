@@ -1,0 +1,147 @@
+package chart
+
+import (
+	"bytes"
+	"encoding/xml"
+	"errors"
+	"io"
+	"math"
+	"strings"
+	"testing"
+	"time"
+)
+
+// parseSVG checks that b is well-formed XML with an <svg> root and returns
+// all text content and the number of <path> elements.
+func parseSVG(t *testing.T, b []byte) (text string, paths int) {
+	t.Helper()
+	dec := xml.NewDecoder(bytes.NewReader(b))
+	var sb strings.Builder
+	root := ""
+	for {
+		tok, err := dec.Token()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			t.Fatalf("not well-formed SVG: %v", err)
+		}
+		switch el := tok.(type) {
+		case xml.StartElement:
+			if root == "" {
+				root = el.Name.Local
+			}
+			if el.Name.Local == "path" {
+				paths++
+			}
+		case xml.CharData:
+			sb.Write(el)
+			sb.WriteByte('\n')
+		}
+	}
+	if root != "svg" {
+		t.Fatalf("root element %q, want svg", root)
+	}
+	return sb.String(), paths
+}
+
+func massSeries(n int, zone *time.Location) []MassPoint {
+	var pts []MassPoint
+	start := time.Date(2027, 3, 1, 0, 0, 0, 0, zone)
+	for i := 0; i < n; i++ {
+		pts = append(pts, MassPoint{On: start.AddDate(0, 0, 3*i), Kg: 58 + 0.1*float64(i%4)})
+	}
+	return pts
+}
+
+func TestBodyMassTrend(t *testing.T) {
+	zone := time.FixedZone("X", 2*3600)
+	b, err := BodyMassTrend(massSeries(10, zone))
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, paths := parseSVG(t, b)
+	for _, want := range []string{"Body mass", "body mass (kg)", "kg", "Mar"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("SVG text lacks %q", want)
+		}
+	}
+	if paths < 10 {
+		t.Errorf("%d paths, want at least one per measurement", paths)
+	}
+	again, _ := BodyMassTrend(massSeries(10, zone))
+	if !bytes.Equal(b, again) {
+		t.Error("same input drew different bytes")
+	}
+	other := massSeries(10, zone)
+	other[5].Kg = 61
+	if b2, _ := BodyMassTrend(other); bytes.Equal(b, b2) {
+		t.Error("changing a measurement did not change the drawing")
+	}
+	if _, err := BodyMassTrend(massSeries(1, zone)); err != nil {
+		t.Errorf("one measurement: %v", err)
+	}
+	if _, err := BodyMassTrend(nil); !errors.Is(err, ErrNoData) {
+		t.Errorf("no data: err = %v", err)
+	}
+	bad := massSeries(3, zone)
+	bad[1].Kg = math.NaN()
+	if _, err := BodyMassTrend(bad); err == nil {
+		t.Error("NaN body mass drawn without error")
+	}
+}
+
+func TestGramsPerKgByDay(t *testing.T) {
+	days := []DayTarget{
+		{Label: "Thu 15", GPerKg: 6, BandMin: 5, BandMax: 7},
+		{Label: "Fri 16", GPerKg: 10, BandMin: 10, BandMax: 12},
+		{Label: "Sat 17", GPerKg: 13, BandMin: 10, BandMax: 12, Overridden: true},
+	}
+	b, err := GramsPerKgByDay(days)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, _ := parseSVG(t, b)
+	for _, want := range []string{"Thu 15", "Fri 16", "Sat 17", "guideline band", "target (g/kg)", "override", "g/kg body mass"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("SVG text lacks %q", want)
+		}
+	}
+	days[2].Overridden = false
+	b2, _ := GramsPerKgByDay(days)
+	text2, _ := parseSVG(t, b2)
+	if strings.Contains(text2, "override") {
+		t.Error("legend says override with no overridden day")
+	}
+	if _, err := GramsPerKgByDay(nil); !errors.Is(err, ErrNoData) {
+		t.Errorf("no days: err = %v", err)
+	}
+}
+
+func TestGlycogenCurve(t *testing.T) {
+	zone := time.FixedZone("X", 2*3600)
+	t0 := time.Date(2027, 4, 15, 0, 0, 0, 0, zone)
+	var pts []GlycogenPoint
+	for h := 0; h <= 72; h++ {
+		pts = append(pts, GlycogenPoint{At: t0.Add(time.Duration(h) * time.Hour), MuscleG: 350 + 2*float64(h), LiverG: 80 + 0.3*float64(h)})
+	}
+	start := t0.Add(72 * time.Hour)
+	b, err := GlycogenCurve(pts, start, "race start")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, _ := parseSVG(t, b)
+	for _, want := range []string{"Expected glycogen", "muscle glycogen", "liver glycogen", "race start", "Apr"} {
+		if !strings.Contains(text, want) {
+			t.Errorf("SVG text lacks %q", want)
+		}
+	}
+	b2, _ := GlycogenCurve(pts, time.Time{}, "race start")
+	if text2, _ := parseSVG(t, b2); strings.Contains(text2, "race start") {
+		t.Error("start line drawn with no start")
+	}
+	again, _ := GlycogenCurve(pts, start, "race start")
+	if !bytes.Equal(b, again) {
+		t.Error("same input drew different bytes")
+	}
+}
