@@ -1,0 +1,205 @@
+package fuel
+
+// Guideline is one published (or trade) value the engine uses. Min and Max
+// hold a range; a single value has Min == Max.
+type Guideline struct {
+	Key         string  `json:"key"`
+	Description string  `json:"description"`
+	Min         float64 `json:"min"`
+	Max         float64 `json:"max"`
+	Unit        string  `json:"unit"`
+	Source      string  `json:"source"` // exactly as REFERENCES.md "cite as"
+}
+
+// Sources, spelled exactly as /work/shared/REFERENCES.md cites them.
+const (
+	SrcBands         = "ACSM/AND/DC 2016 joint position statement; Burke et al. 2011"
+	SrcACSM          = "ACSM/AND/DC 2016"
+	SrcACSMJeuk      = "ACSM/AND/DC 2016; Jeukendrup AE. Sports Med 2014;44 Suppl 1:S25–S33"
+	SrcSedlock       = "Sedlock DA. The latest on carbohydrate loading. Curr Sports Med Rep 2008;7(4):209–213"
+	SrcBussau        = "Bussau VA et al. Eur J Appl Physiol 2002;87:290–295 (from memory)"
+	SrcVanLoon       = "van Loon LJ et al. Am J Clin Nutr 2000;72:106–111 (from memory)"
+	SrcIvy           = "Ivy JL et al. J Appl Physiol 1988;64:1480–1485 (from memory)"
+	SrcIOC           = "IOC consensus statement on REDs (Mountjoy M et al. Br J Sports Med 2018;52:687–697; 2023 update)"
+	SrcIUPAC         = "IUPAC standard atomic weights"
+	SrcCommon        = "common practice"
+	SrcOlsson        = "Olsson KE, Saltin B. Acta Physiol Scand 1970;80:11–18 (from memory)"
+	SrcDensity       = "Bergström J et al. Acta Physiol Scand 1967;71:140–150; Sherman WM et al. Int J Sports Med 1981;2:114–118 (from memory)"
+	SrcJentjens      = "Jentjens R, Jeukendrup AE. Sports Med 2003;33(2):117–144 (from memory)"
+	SrcJanssen       = "Janssen I et al. J Appl Physiol 2000;89:81–88"
+	SrcRapoport      = "Rapoport BI. PLoS Comput Biol 2010;6(10):e1000960"
+	SrcRapoportShort = "Rapoport 2010"
+	SrcRapoportCP    = "Rapoport 2010; common practice"
+	SrcBoer          = "Boer P. Estimated lean body mass as an index for normalization of body fluid volumes in humans. Am J Physiol 1984;247:F632–F636"
+	SrcWeir          = "Weir JB. J Physiol 1949;109:1–9"
+	SrcFrayn         = "Frayn KN. J Appl Physiol 1983;55:628–634"
+	SrcRomijn        = "Romijn JA et al. Am J Physiol 1993;265:E380–E391 (from memory, shape only)"
+	SrcAtwater       = "Atwater general factors (FAO 2003 food energy report)"
+	SrcAinsworth     = "Ainsworth BE et al. 2011 Compendium of Physical Activities, Med Sci Sports Exerc 2011;43:1575–1581"
+	// SrcModel marks a modelling choice of this engine that no reference
+	// fixes; it is documented where it is used.
+	SrcModel = "model assumption"
+)
+
+// Guidelines is THE one table of values the engine uses, each with its source.
+// Code reads it through the named variables below, so a value lives here only.
+var Guidelines = []Guideline{
+	// Daily carbohydrate by training load.
+	{"band.light", "light: low-intensity or skill-based activity", 3, 5, "g/kg/day", SrcBands},
+	{"band.moderate", "moderate: moderate exercise about 1 h a day", 5, 7, "g/kg/day", SrcBands},
+	{"band.high", "high: endurance, 1–3 h a day of moderate to high intensity", 6, 10, "g/kg/day", SrcBands},
+	{"band.very-high", "very high: extreme commitment, over 4–5 h a day", 8, 12, "g/kg/day", SrcBands},
+
+	// Acute fuelling.
+	{"fuelling-up", "general fuelling up, events under 90 min", 7, 12, "g/kg per 24 h", SrcACSM},
+	{"loading.event-min", "carbohydrate loading is for events over 90 min", 90, 90, "min", SrcACSM},
+	{"loading.two-day", "carbohydrate loading, events over 90 min, for 36–48 h", 10, 12, "g/kg per 24 h", SrcACSM},
+	{"loading.women-bm", "women loading: over 8 g/kg body mass per day", 8, 8, "g/kg/day", SrcSedlock},
+	{"loading.women-ffm", "women loading: or 10 g/kg lean mass per day", 10, 10, "g/kg FFM/day", SrcSedlock},
+	{"loading.one-day", "one-day loading: about 10 g/kg in 24 h with rest", 10, 10, "g/kg per 24 h", SrcBussau},
+	{"repletion.speedy-gap", "speedy refuelling applies when under 8 h separate two demanding sessions", 8, 8, "h", SrcACSM},
+	{"repletion.rate", "speedy refuelling: 1.0–1.2 g/kg/h for the first 4 h, then daily needs", 1.0, 1.2, "g/kg/h", SrcACSM},
+	{"repletion.window", "speedy refuelling window", 4, 4, "h", SrcACSM},
+	{"repletion.feed-interval", "feeds every 15–60 min during speedy refuelling", 15, 60, "min", SrcACSM},
+	{"repletion.protein", "protein after key sessions: about 0.3 g/kg", 0.3, 0.3, "g/kg", SrcACSM},
+	{"repletion.cho-protein", "0.8 g/kg/h carbohydrate + 0.4 g/kg/h protein ≈ 1.2 g/kg/h carbohydrate alone for glycogen", 0.8, 1.2, "g/kg/h", SrcVanLoon},
+	{"repletion.delay-2h", "waiting 2 h after exercise roughly halves the early resynthesis rate", 0.5, 0.5, "ratio", SrcIvy},
+	{"pre-event.cho", "pre-event meal before exercise over 60 min: 1–4 g/kg", 1, 4, "g/kg", SrcACSM},
+	{"pre-event.hours", "pre-event meal 1–4 h before", 1, 4, "h", SrcACSM},
+	{"pre-event.event-min", "the pre-event meal guideline is for exercise over 60 min", 60, 60, "min", SrcACSM},
+	{"during.none", "during exercise under 45 min: not needed", 0, 45, "min", SrcACSM},
+	{"during.small", "during 45–75 min: small amounts or mouth rinse", 45, 75, "min", SrcACSM},
+	{"during.small-rate", "small amounts during 45–75 min (this engine's ceiling for 'small')", 0, 30, "g/h", SrcACSM},
+	{"during.30-60", "during 1–2.5 h: 30–60 g/h", 30, 60, "g/h", SrcACSMJeuk},
+	{"during.30-60-time", "the 30–60 g/h band applies up to 2.5 h", 75, 150, "min", SrcACSMJeuk},
+	{"during.up-to-90", "during over 2.5–3 h: up to 90 g/h, from multiple transportable carbohydrates", 30, 90, "g/h", SrcACSMJeuk},
+	{"during.hard-cover", "above roughly 80% of maximum heart rate, the highest practical intake covers only about a third (≈35%) of carbohydrate use", 0.35, 0.35, "share", SrcCommon},
+	{"protein.daily", "protein, daily", 1.2, 2.0, "g/kg/day", SrcACSM},
+	{"protein.meal", "protein about 0.3 g/kg per meal, every 3–5 h", 0.3, 0.3, "g/kg", SrcACSM},
+	{"fat.floor", "fat not below 20% of energy", 0.20, 0.20, "share of energy", SrcACSM},
+
+	// Energy availability.
+	{"ea.low", "low energy availability: under 30 kcal/kg FFM/day", 30, 30, "kcal/kg FFM/day", SrcIOC},
+	{"ea.adequate", "adequate energy availability: about 45 kcal/kg FFM/day", 45, 45, "kcal/kg FFM/day", SrcIOC},
+
+	// Body, glycogen and energy.
+	{"glucosyl.g-per-mmol", "glucosyl unit C6H10O5, 162.14 g/mol", 0.162, 0.162, "g/mmol", SrcIUPAC},
+	{"liver.fed-70kg", "liver glycogen, fed 70 kg adult", 100, 120, "g", SrcCommon},
+	{"muscle.70kg", "muscle glycogen, 70 kg adult", 400, 400, "g", SrcCommon},
+	{"liver.fed-hours", "liver glycogen is the main source of blood glucose after a meal for about 8–12 h", 8, 12, "h", SrcCommon},
+	{"glycogen.water", "water stored with glycogen: about 3 g per g (3–4 parts)", 3, 4, "g/g", SrcOlsson},
+	{"density.depleted", "muscle glycogen density, depleted", 25, 40, "mmol/kg wet muscle", SrcDensity},
+	{"density.typical", "muscle glycogen density, typical trained", 80, 120, "mmol/kg wet muscle", SrcDensity},
+	{"density.loaded", "muscle glycogen density, after loading (150–200+)", 150, 200, "mmol/kg wet muscle", SrcDensity},
+	{"resynthesis.max", "maximal muscle resynthesis with ample carbohydrate in the first hours", 5, 8, "mmol/kg wet muscle/h", SrcJentjens},
+	{"muscle.share.male", "skeletal muscle mass / body mass, men", 0.384, 0.384, "share", SrcJanssen},
+	{"muscle.share.female", "skeletal muscle mass / body mass, women", 0.306, 0.306, "share", SrcJanssen},
+	{"legs.share.male", "leg muscle / body mass, men (range about 14–27%)", 0.21, 0.21, "share", SrcRapoport},
+	{"legs.share.female", "leg muscle / body mass, women (range about 14–27%)", 0.20, 0.20, "share", SrcRapoport},
+	{"legs.loaded-kcal", "supercompensated leg glycogen", 144, 144, "kcal/kg leg muscle", SrcRapoportShort},
+	{"run.kcal-per-kg-km", "energy cost of running", 1, 1, "kcal/kg/km", SrcRapoportCP},
+	{"cycle.kj-per-kcal", "1 kJ of mechanical work ≈ 1 kcal expended (gross efficiency ≈ 24%)", 0.24, 0.24, "efficiency", SrcCommon},
+	{"boer.male", "lean body mass, men: 0.407·W + 0.267·H − 19.2", 0, 0, "kg", SrcBoer},
+	{"boer.female", "lean body mass, women: 0.252·W + 0.473·H − 48.3", 0, 0, "kg", SrcBoer},
+	{"weir", "kcal = 3.941·VO2 + 1.106·VCO2 (litres)", 3.941, 1.106, "kcal/L", SrcWeir},
+	{"frayn.cho", "carbohydrate g/min = 4.55·VCO2 − 3.21·VO2", 4.55, 3.21, "g/L", SrcFrayn},
+	{"frayn.fat", "fat g/min = 1.67·VO2 − 1.67·VCO2", 1.67, 1.67, "g/L", SrcFrayn},
+	{"share.25", "carbohydrate share of energy at ≈ 25% VO2max: small", 0.10, 0.10, "share", SrcRomijn},
+	{"share.65", "carbohydrate share of energy at ≈ 65% VO2max: about half", 0.50, 0.50, "share", SrcRomijn},
+	{"share.85", "carbohydrate share of energy at ≈ 85% VO2max: about three quarters", 0.75, 0.75, "share", SrcRomijn},
+	{"atwater.cho", "carbohydrate energy", 4, 4, "kcal/g", SrcAtwater},
+	{"atwater.protein", "protein energy", 4, 4, "kcal/g", SrcAtwater},
+	{"atwater.fat", "fat energy", 9, 9, "kcal/g", SrcAtwater},
+	{"atwater.alcohol", "alcohol energy", 7, 7, "kcal/g", SrcAtwater},
+	{"kj-per-kcal", "1 kcal = 4.184 kJ", 4.184, 4.184, "kJ/kcal", SrcAtwater},
+	{"met", "1 MET ≈ 1 kcal/kg/h ≈ 3.5 ml O2/kg/min", 1, 3.5, "kcal/kg/h; ml/kg/min", SrcAinsworth},
+	{"marathon.wall", "a typical runner at marathon pace with usual stores runs low at roughly 30–35 km", 30, 35, "km", SrcRapoportCP},
+
+	// Model choices (no single reference; see model.go).
+	{"model.typical-density", "starting muscle glycogen density when nothing else is known (middle of the typical band)", 100, 100, "mmol/kg wet muscle", SrcModel},
+	{"model.capacity-density", "asymptote of muscle glycogen density the synthesis model approaches (loaded band's '200+')", 220, 220, "mmol/kg wet muscle", SrcModel},
+	{"model.liver-per-kg", "liver glycogen capacity per kg body mass (gives 112 g at 70 kg, inside 100–120 g)", 1.6, 1.6, "g/kg", SrcModel},
+	{"model.gut-absorption", "most carbohydrate the gut delivers per hour at rest", 90, 90, "g/h", SrcModel},
+	{"model.window-boost", "post-exercise boost of the synthesis rate, decaying with a 1.3 h time constant (chosen so a 2 h delay roughly halves the early rate)", 1.2, 1.3, "×; h", SrcModel},
+	{"model.run-fraction", "share of a session's work drawn from the working muscle's glycogen vs. blood glucose from the liver", 0.8, 0.8, "share", SrcModel},
+}
+
+// guideline returns the entry for key; a missing key is a programming
+// error caught by the first test run.
+func guideline(key string) Guideline {
+	for _, g := range Guidelines {
+		if g.Key == key {
+			return g
+		}
+	}
+	panic("fuel: no guideline " + key)
+}
+
+// Guideline values as used in the code.
+var (
+	gBandLight    = guideline("band.light")
+	gBandModerate = guideline("band.moderate")
+	gBandHigh     = guideline("band.high")
+	gBandVeryHigh = guideline("band.very-high")
+
+	gFuellingUp     = guideline("fuelling-up")
+	gLoadingEvent   = guideline("loading.event-min")
+	gLoadingTwoDay  = guideline("loading.two-day")
+	gWomenBM        = guideline("loading.women-bm")
+	gWomenFFM       = guideline("loading.women-ffm")
+	gLoadingOneDay  = guideline("loading.one-day")
+	gSpeedyGap      = guideline("repletion.speedy-gap")
+	gRepletionRate  = guideline("repletion.rate")
+	gRepletionWin   = guideline("repletion.window")
+	gFeedInterval   = guideline("repletion.feed-interval")
+	gRepletionProt  = guideline("repletion.protein")
+	gDelay2h        = guideline("repletion.delay-2h")
+	gPreEventCho    = guideline("pre-event.cho")
+	gPreEventHours  = guideline("pre-event.hours")
+	gPreEventMin    = guideline("pre-event.event-min")
+	gDuringNone     = guideline("during.none")
+	gDuringSmall    = guideline("during.small")
+	gDuringSmallG   = guideline("during.small-rate")
+	gDuring3060     = guideline("during.30-60")
+	gDuring3060Time = guideline("during.30-60-time")
+	gDuringUpTo90   = guideline("during.up-to-90")
+	gHardCover      = guideline("during.hard-cover")
+	gProteinDaily   = guideline("protein.daily")
+	gProteinMeal    = guideline("protein.meal")
+	gFatFloor       = guideline("fat.floor")
+
+	gEALow      = guideline("ea.low")
+	gEAAdequate = guideline("ea.adequate")
+
+	gGlucosyl      = guideline("glucosyl.g-per-mmol")
+	gLiverFedHours = guideline("liver.fed-hours")
+	gWater         = guideline("glycogen.water")
+	gDepleted      = guideline("density.depleted")
+	gTypical       = guideline("density.typical")
+	gLoaded        = guideline("density.loaded")
+	gResynthMax    = guideline("resynthesis.max")
+	gMuscleMale    = guideline("muscle.share.male")
+	gMuscleFemale  = guideline("muscle.share.female")
+	gLegsMale      = guideline("legs.share.male")
+	gLegsFemale    = guideline("legs.share.female")
+	gRunCost       = guideline("run.kcal-per-kg-km")
+	gCycleEff      = guideline("cycle.kj-per-kcal")
+	gWeir          = guideline("weir")
+	gFraynCho      = guideline("frayn.cho")
+	gFraynFat      = guideline("frayn.fat")
+	gShare25       = guideline("share.25")
+	gShare65       = guideline("share.65")
+	gShare85       = guideline("share.85")
+	gAtwaterCho    = guideline("atwater.cho")
+	gAtwaterProt   = guideline("atwater.protein")
+	gAtwaterFat    = guideline("atwater.fat")
+	gKJPerKcal     = guideline("kj-per-kcal")
+	gMET           = guideline("met")
+
+	gModelTypical  = guideline("model.typical-density")
+	gModelCapacity = guideline("model.capacity-density")
+	gModelLiver    = guideline("model.liver-per-kg")
+	gModelGut      = guideline("model.gut-absorption")
+	gModelBoost    = guideline("model.window-boost")
+	gModelMuscleFr = guideline("model.run-fraction")
+)
