@@ -92,7 +92,7 @@ type Plan struct {
 	Protocol          string  `json:"protocol,omitempty"`
 	TimeZone          string  `json:"time_zone"`
 	BodyMassKg        float64 `json:"body_mass_kg"`
-	FatFreeMassKg     float64 `json:"fat_free_mass_kg"` // null in JSON when FatFreeMassMethod is "none"
+	FatFreeMassKg     float64 `json:"fat_free_mass_kg"`     // null in JSON when FatFreeMassMethod is "none"
 	FatFreeMassMethod string  `json:"fat_free_mass_method"` // "measured body fat" | "Boer 1984 estimate" | "none"
 
 	Days               []Day         `json:"days"`
