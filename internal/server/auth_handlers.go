@@ -1,0 +1,203 @@
+package server
+
+import (
+	"errors"
+	"net/http"
+	"strings"
+
+	"larder/internal/auth"
+	"larder/internal/forms"
+	"larder/internal/store"
+	"larder/web"
+)
+
+type signInForm struct {
+	Email    string `form:"email" label:"Email" validate:"required,max=254"`
+	Password string `form:"password" label:"Password" validate:"required,max=200"`
+	Next     string `form:"next"`
+}
+
+// dummyHash is checked when an email is unknown, so a wrong email takes as
+// long as a wrong password and does not reveal who has an account.
+var dummyHash, _ = auth.HashPassword("not a real password, only for timing")
+
+func (s *Server) signInPage(w http.ResponseWriter, r *http.Request) {
+	if n, err := s.Store.CountUsers(r.Context()); err == nil && n == 0 {
+		http.Redirect(w, r, "/setup", http.StatusSeeOther)
+		return
+	}
+	if CurrentUser(r) != nil {
+		http.Redirect(w, r, safeNext(r.URL.Query().Get("next")), http.StatusSeeOther)
+		return
+	}
+	f := forms.New()
+	f.Values.Set("next", r.URL.Query().Get("next"))
+	s.Render(w, r, http.StatusOK, "Sign in", "", web.SignIn(f))
+}
+
+func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
+	if !s.ParseForm(w, r) {
+		return
+	}
+	var in signInForm
+	f := forms.Decode(r.PostForm, &in)
+	f.Values.Del("password")
+	if f.Has() {
+		s.Render(w, r, http.StatusUnprocessableEntity, "Sign in", "", web.SignIn(f))
+		return
+	}
+	u, err := s.Store.UserByEmail(r.Context(), in.Email)
+	if err != nil && !errors.Is(err, store.ErrNotFound) {
+		s.ServerError(w, r, err)
+		return
+	}
+	hash := u.PasswordHash
+	if err != nil {
+		hash = dummyHash
+	}
+	ok, herr := auth.CheckPassword(hash, in.Password)
+	if herr != nil {
+		s.Log.Error("stored password hash unreadable", "user", u.ID, "err", herr)
+	}
+	switch {
+	case err != nil || !ok:
+		s.Log.Info("sign-in refused", "email", in.Email)
+		f.Errors.Add("password", "The email or password is not right. Please try again.")
+		s.Render(w, r, http.StatusUnauthorized, "Sign in", "", web.SignIn(f))
+		return
+	case u.Disabled:
+		f.Errors.Add("email", "This account is disabled. Ask an administrator of the practice to enable it.")
+		s.Render(w, r, http.StatusForbidden, "Sign in", "", web.SignIn(f))
+		return
+	}
+	// A new token on sign-in: a session id planted before sign-in is useless after.
+	if err := s.Sessions.RenewToken(r.Context()); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Sessions.Put(r.Context(), auth.KeyUserID, u.ID)
+	if err := s.Store.Audit(r.Context(), store.Actor(u.ID), "sign_in", "user", u.ID, nil); err != nil {
+		s.Log.Warn("audit sign-in", "err", err)
+	}
+	Redirect(w, r, safeNext(in.Next))
+}
+
+func (s *Server) signOut(w http.ResponseWriter, r *http.Request) {
+	if u := CurrentUser(r); u != nil {
+		if err := s.Store.Audit(r.Context(), store.Actor(u.ID), "sign_out", "user", u.ID, nil); err != nil {
+			s.Log.Warn("audit sign-out", "err", err)
+		}
+	}
+	// Destroy deletes the session row, so the old cookie is worthless even if copied.
+	if err := s.Sessions.Destroy(r.Context()); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	Redirect(w, r, "/signin")
+}
+
+type setupForm struct {
+	PracticeName string `form:"practice_name" label:"Practice name" validate:"required,max=120"`
+	Name         string `form:"name" label:"Your name" validate:"required,max=200"`
+	Email        string `form:"email" label:"Email" validate:"required,email,max=254"`
+	Password     string `form:"password" label:"Password" validate:"required,min=10,max=200"`
+	Confirm      string `form:"confirm" label:"Password again" validate:"required,eqfield=Password" msg:"The two passwords do not match."`
+}
+
+// setupPage makes the first admin; it exists only while there is no user.
+func (s *Server) setupPage(w http.ResponseWriter, r *http.Request) {
+	n, err := s.Store.CountUsers(r.Context())
+	if err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	if n > 0 {
+		s.NotFound(w, r)
+		return
+	}
+	s.Render(w, r, http.StatusOK, "Set up", "", web.Setup(forms.New()))
+}
+
+func (s *Server) setup(w http.ResponseWriter, r *http.Request) {
+	if !s.ParseForm(w, r) {
+		return
+	}
+	var in setupForm
+	f := forms.Decode(r.PostForm, &in)
+	f.Values.Del("password")
+	f.Values.Del("confirm")
+	if f.Has() {
+		s.Render(w, r, http.StatusUnprocessableEntity, "Set up", "", web.Setup(f))
+		return
+	}
+	hash, err := auth.HashPassword(in.Password)
+	if err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	u := store.User{Email: in.Email, Name: in.Name, PasswordHash: hash, Role: store.RoleAdmin}
+	if err := s.Store.CreateFirstUser(r.Context(), &u); err != nil {
+		if errors.Is(err, store.ErrUsersExist) {
+			s.NotFound(w, r)
+			return
+		}
+		s.ServerError(w, r, err)
+		return
+	}
+	if err := s.Store.SetSetting(r.Context(), store.Actor(u.ID), store.SettingPracticeName, strings.TrimSpace(in.PracticeName)); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	if err := s.Sessions.RenewToken(r.Context()); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Sessions.Put(r.Context(), auth.KeyUserID, u.ID)
+	s.Flash(r, "Welcome. Your practice is set up; add your first client.")
+	Redirect(w, r, "/clients")
+}
+
+type passwordForm struct {
+	Current string `form:"current" label:"Current password" validate:"required,max=200"`
+	New     string `form:"new" label:"New password" validate:"required,min=10,max=200"`
+	Confirm string `form:"confirm" label:"New password again" validate:"required,eqfield=New" msg:"The two new passwords do not match."`
+}
+
+func (s *Server) accountPage(w http.ResponseWriter, r *http.Request) {
+	s.Render(w, r, http.StatusOK, "My account", "account", web.Account(*CurrentUser(r), forms.New()))
+}
+
+func (s *Server) changePassword(w http.ResponseWriter, r *http.Request) {
+	if !s.ParseForm(w, r) {
+		return
+	}
+	u := CurrentUser(r)
+	var in passwordForm
+	f := forms.Decode(r.PostForm, &in)
+	f.Values = nil // never send passwords back
+	if !f.Has() {
+		if ok, _ := auth.CheckPassword(u.PasswordHash, in.Current); !ok {
+			f.Errors.Add("current", "The current password is not right.")
+		}
+	}
+	if f.Has() {
+		s.Render(w, r, http.StatusUnprocessableEntity, "My account", "account", web.Account(*u, f))
+		return
+	}
+	hash, err := auth.HashPassword(in.New)
+	if err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	if err := s.Store.SetUserPassword(r.Context(), Actor(r), u.ID, hash); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	// Other devices keep their sessions until they expire; this one gets a fresh token.
+	if err := s.Sessions.RenewToken(r.Context()); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Flash(r, "Your password is changed.")
+	Redirect(w, r, "/account")
+}

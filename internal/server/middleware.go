@@ -1,0 +1,120 @@
+package server
+
+import (
+	"context"
+	"errors"
+	"net/http"
+	"net/url"
+	"runtime/debug"
+	"strings"
+	"time"
+
+	"github.com/go-chi/chi/v5/middleware"
+
+	"larder/internal/auth"
+	"larder/internal/store"
+)
+
+type ctxKey int
+
+const userKey ctxKey = iota
+
+// CurrentUser returns the signed-in user, or nil on public pages.
+func CurrentUser(r *http.Request) *store.User {
+	u, _ := r.Context().Value(userKey).(*store.User)
+	return u
+}
+
+// Actor is the signed-in user as the audit log names them.
+func Actor(r *http.Request) store.Actor {
+	if u := CurrentUser(r); u != nil {
+		return store.Actor(u.ID)
+	}
+	return store.System
+}
+
+// logRequests writes one structured log line per request.
+func (s *Server) logRequests(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		start := time.Now()
+		ww := middleware.NewWrapResponseWriter(w, r.ProtoMajor)
+		next.ServeHTTP(ww, r)
+		s.Log.Info("request", "method", r.Method, "path", r.URL.Path, "status", ww.Status(),
+			"bytes", ww.BytesWritten(), "duration_ms", time.Since(start).Milliseconds())
+	})
+}
+
+// recoverPanics turns a handler panic into a logged 500 page.
+func (s *Server) recoverPanics(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		defer func() {
+			if v := recover(); v != nil {
+				if v == http.ErrAbortHandler {
+					panic(v)
+				}
+				s.Log.Error("panic", "path", r.URL.Path, "value", v, "stack", string(debug.Stack()))
+				http.Error(w, "Something went wrong on our side. Please try again.", http.StatusInternalServerError)
+			}
+		}()
+		next.ServeHTTP(w, r)
+	})
+}
+
+// loadUser puts the signed-in user (if any) into the request context. The
+// user is read from the database on every request, so a disabled account or
+// a changed role takes effect at once.
+func (s *Server) loadUser(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		id := s.Sessions.GetInt64(r.Context(), auth.KeyUserID)
+		if id == 0 {
+			next.ServeHTTP(w, r)
+			return
+		}
+		u, err := s.Store.UserByID(r.Context(), id)
+		switch {
+		case errors.Is(err, store.ErrNotFound) || (err == nil && u.Disabled):
+			_ = s.Sessions.Destroy(r.Context())
+		case err != nil:
+			s.ServerError(w, r, err)
+			return
+		default:
+			r = r.WithContext(context.WithValue(r.Context(), userKey, &u))
+		}
+		next.ServeHTTP(w, r)
+	})
+}
+
+// requireUser sends anonymous visitors to the sign-in page, remembering
+// where they were going.
+func (s *Server) requireUser(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if CurrentUser(r) == nil {
+			next := r.URL.RequestURI()
+			if r.Method != http.MethodGet {
+				next = "/"
+			}
+			http.Redirect(w, r, "/signin?next="+url.QueryEscape(next), http.StatusSeeOther)
+			return
+		}
+		next.ServeHTTP(w, r)
+	})
+}
+
+// requireAdmin refuses staff pages meant for admins to everyone else.
+func (s *Server) requireAdmin(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		if u := CurrentUser(r); u == nil || !u.IsAdmin() {
+			s.Forbidden(w, r)
+			return
+		}
+		next.ServeHTTP(w, r)
+	})
+}
+
+// safeNext keeps a post-sign-in redirect on this site: only a local path.
+func safeNext(next string) string {
+	if next == "" || !strings.HasPrefix(next, "/") || strings.HasPrefix(next, "//") || strings.HasPrefix(next, "/\\") || strings.ContainsAny(next, "\r\n") {
+		return "/clients"
+	}
+	return next
+}

@@ -1,0 +1,109 @@
+package server
+
+import (
+	"net/http"
+	"strconv"
+
+	"github.com/a-h/templ"
+	"github.com/go-chi/chi/v5"
+
+	"larder/internal/auth"
+	"larder/internal/store"
+	"larder/web"
+)
+
+// Render writes a full page: the layout around body, with status.
+func (s *Server) Render(w http.ResponseWriter, r *http.Request, status int, title, nav string, body templ.Component) {
+	p := web.Page{Title: title, Nav: nav, User: CurrentUser(r)}
+	p.PracticeName = s.PracticeName(r)
+	if p.User != nil {
+		p.Flash = s.Sessions.PopString(r.Context(), auth.KeyFlash)
+	}
+	w.Header().Set("Content-Type", "text/html; charset=utf-8")
+	w.Header().Set("Cache-Control", "no-store")
+	w.WriteHeader(status)
+	if err := web.Layout(p, body).Render(r.Context(), w); err != nil {
+		s.Log.Error("render", "path", r.URL.Path, "err", err)
+	}
+}
+
+// PracticeName is the practice_name setting, or the default.
+func (s *Server) PracticeName(r *http.Request) string {
+	name, err := s.Store.Setting(r.Context(), store.SettingPracticeName, store.DefaultPracticeName)
+	if err != nil {
+		s.Log.Warn("practice name", "err", err)
+	}
+	return name
+}
+
+// Flash stores a one-time notice shown on the next page.
+func (s *Server) Flash(r *http.Request, msg string) {
+	s.Sessions.Put(r.Context(), auth.KeyFlash, msg)
+}
+
+// Redirect answers a successful POST with 303 See Other.
+func Redirect(w http.ResponseWriter, r *http.Request, url string) {
+	http.Redirect(w, r, url, http.StatusSeeOther)
+}
+
+// ServerError logs err and shows a plain 500 page.
+func (s *Server) ServerError(w http.ResponseWriter, r *http.Request, err error) {
+	s.Log.Error("server error", "method", r.Method, "path", r.URL.Path, "err", err)
+	s.Render(w, r, http.StatusInternalServerError, "Error", "",
+		web.Message("Something went wrong", "The request could not be completed because of a problem on our side. Nothing was changed. Please try again; if it keeps happening, tell your administrator."))
+}
+
+// NotFound shows a plain 404 page.
+func (s *Server) NotFound(w http.ResponseWriter, r *http.Request) {
+	s.Render(w, r, http.StatusNotFound, "Not found", "", web.Message("Not found", "There is nothing at this address. It may have been deleted."))
+}
+
+// Forbidden shows a plain 403 page.
+func (s *Server) Forbidden(w http.ResponseWriter, r *http.Request) {
+	s.Render(w, r, http.StatusForbidden, "Not allowed", "", web.Message("Not allowed", "Only an administrator of the practice can open this page."))
+}
+
+// ParamID reads a numeric URL parameter such as {clientID}; ok is false
+// (and a 404 has been written) when it is not a positive number.
+func (s *Server) ParamID(w http.ResponseWriter, r *http.Request, name string) (int64, bool) {
+	id, err := strconv.ParseInt(chi.URLParam(r, name), 10, 64)
+	if err != nil || id <= 0 {
+		s.NotFound(w, r)
+		return 0, false
+	}
+	return id, true
+}
+
+// ClientFromURL loads the client named by {clientID}; ok is false (and a
+// response has been written) when there is none.
+func (s *Server) ClientFromURL(w http.ResponseWriter, r *http.Request) (store.Client, bool) {
+	id, ok := s.ParamID(w, r, "clientID")
+	if !ok {
+		return store.Client{}, false
+	}
+	c, err := s.Store.ClientByID(r.Context(), id)
+	if err != nil {
+		s.StoreError(w, r, err)
+		return store.Client{}, false
+	}
+	return c, true
+}
+
+// StoreError answers a store error: 404 for ErrNotFound, else 500.
+func (s *Server) StoreError(w http.ResponseWriter, r *http.Request, err error) {
+	if err == store.ErrNotFound {
+		s.NotFound(w, r)
+		return
+	}
+	s.ServerError(w, r, err)
+}
+
+// ParseForm parses a POST body (limited to 1 MiB); false means a 400 was written.
+func (s *Server) ParseForm(w http.ResponseWriter, r *http.Request) bool {
+	r.Body = http.MaxBytesReader(w, r.Body, 1<<20)
+	if err := r.ParseForm(); err != nil {
+		http.Error(w, "The form could not be read.", http.StatusBadRequest)
+		return false
+	}
+	return true
+}

@@ -1,0 +1,47 @@
+package server
+
+import (
+	"io/fs"
+	"net/http"
+
+	"github.com/go-chi/chi/v5"
+	"github.com/go-chi/chi/v5/middleware"
+
+	"larder/web"
+)
+
+func (s *Server) routes() http.Handler {
+	r := chi.NewRouter()
+	r.Use(middleware.RequestID, s.logRequests, s.recoverPanics)
+	// Cross-site POSTs are refused by the browser's own Sec-Fetch-Site and
+	// Origin headers (net/http CrossOriginProtection), so forms need no token.
+	r.Use(http.NewCrossOriginProtection().Handler)
+
+	static, _ := fs.Sub(web.Static, "static")
+	r.Handle("/static/*", http.StripPrefix("/static/", http.FileServerFS(static)))
+	r.Get("/healthz", s.healthz)
+	r.NotFound(s.Sessions.LoadAndSave(s.loadUser(http.HandlerFunc(s.NotFound))).ServeHTTP)
+
+	r.Group(func(r chi.Router) {
+		r.Use(s.Sessions.LoadAndSave, s.loadUser)
+
+		r.Get("/signin", s.signInPage)
+		r.Post("/signin", s.signIn)
+		r.Get("/setup", s.setupPage)
+		r.Post("/setup", s.setup)
+		r.Post("/signout", s.signOut)
+
+		r.Group(func(r chi.Router) {
+			r.Use(s.requireUser)
+			r.Get("/", func(w http.ResponseWriter, r *http.Request) { http.Redirect(w, r, "/clients", http.StatusFound) })
+			s.mountStaffRoutes(r)
+			s.mountPlanRoutes(r)
+
+			r.Group(func(r chi.Router) {
+				r.Use(s.requireAdmin)
+				s.mountAdminRoutes(r)
+			})
+		})
+	})
+	return r
+}

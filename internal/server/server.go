@@ -1,0 +1,79 @@
+// Package server owns Larder's HTTP surface: the chi router, middleware
+// (request logs, recovery, sign-in, roles, cross-origin protection), and the
+// handlers of the staff pages. Handlers decode and validate a form, call the
+// store, and render a web component; nothing else happens here.
+package server
+
+import (
+	"log/slog"
+	"net/http"
+	"time"
+
+	"github.com/a-h/templ"
+	"github.com/alexedwards/scs/v2"
+
+	"larder/internal/auth"
+	"larder/internal/store"
+)
+
+// Config is what New needs.
+type Config struct {
+	Store  *store.Store
+	Logger *slog.Logger // nil: discard
+	// SecureCookies marks the session cookie Secure (serve behind TLS).
+	SecureCookies bool
+	// SessionCleanup is passed to auth.SessionOptions.CleanupInterval.
+	SessionCleanup time.Duration
+	// Now returns the current time; nil means time.Now (tests fix the clock).
+	Now func() time.Time
+}
+
+// Server holds what every handler needs. Handlers of other files (plans,
+// foods) use the same fields and helpers.
+type Server struct {
+	Store    *store.Store
+	Sessions *scs.SessionManager
+	Log      *slog.Logger
+	Now      func() time.Time
+
+	// ClientPlansSection, when set (by mountPlanRoutes), renders the plans
+	// section of a client's page.
+	ClientPlansSection func(r *http.Request, c store.Client) (templ.Component, error)
+	// ClientBodyMassChart, when set, renders a body-mass trend beside the
+	// body-mass history on a client's page.
+	ClientBodyMassChart func(r *http.Request, c store.Client, history []store.BodyMass) (templ.Component, error)
+
+	handler http.Handler
+}
+
+// New builds the server and its routes.
+func New(cfg Config) *Server {
+	log := cfg.Logger
+	if log == nil {
+		log = slog.New(slog.DiscardHandler)
+	}
+	now := cfg.Now
+	if now == nil {
+		now = time.Now
+	}
+	s := &Server{
+		Store:    cfg.Store,
+		Sessions: auth.NewSessionManager(cfg.Store.Pool, auth.SessionOptions{Secure: cfg.SecureCookies, CleanupInterval: cfg.SessionCleanup}),
+		Log:      log,
+		Now:      now,
+	}
+	s.handler = s.routes()
+	return s
+}
+
+// ServeHTTP makes Server an http.Handler.
+func (s *Server) ServeHTTP(w http.ResponseWriter, r *http.Request) { s.handler.ServeHTTP(w, r) }
+
+// Close stops background work (the expired-session sweeper).
+func (s *Server) Close() { auth.StopCleanup(s.Sessions) }
+
+// Today is the current date at midnight UTC, the form used for date columns.
+func (s *Server) Today() time.Time {
+	y, m, d := s.Now().Date()
+	return time.Date(y, m, d, 0, 0, 0, 0, time.UTC)
+}
