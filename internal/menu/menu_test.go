@@ -198,3 +198,43 @@ func BenchmarkSuggest(b *testing.B) {
 		Suggest(foods, Need{ChoG: 173, LowFibre: true})
 	}
 }
+
+// Every food in the IFCT 2017 extract passes the energy check: the table's
+// own energy figures (Longvah T et al., Indian Food Composition Tables 2017;
+// kJ converted at 1 kcal = 4.184 kJ, Atwater general factors (FAO 2003 food
+// energy report)) agree with 4/4/9 kcal/g within the margin.
+func TestEnergyCheckAcceptsIFCT(t *testing.T) {
+	f, err := os.Open("../../testdata/ifct2017/foods.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	rows, _ := csv.NewReader(f).ReadAll()
+	for _, r := range rows[1:] {
+		var v [5]float64
+		for i := range v {
+			v[i], _ = strconv.ParseFloat(r[3+i], 64)
+		}
+		kcal := v[0] / 4.184
+		if est, far := EnergyFarOff(kcal, v[1], v[2], v[3]); far {
+			t.Errorf("%s %s: %.0f kcal stated, %.0f kcal by Atwater factors, flagged as far off", r[0], r[1], kcal, est)
+		}
+	}
+}
+
+func TestEnergyCheckCatchesSlips(t *testing.T) {
+	// Raw milled rice, IFCT 2017 A015: 78.24 g carbohydrate, 7.94 g protein,
+	// 0.52 g fat → 4×78.24 + 4×7.94 + 9×0.52 = 349.4 kcal (Atwater general
+	// factors (FAO 2003 food energy report)).
+	if est := AtwaterKcal(78.24, 7.94, 0.52); math.Abs(est-349.4) > 0.05 {
+		t.Errorf("AtwaterKcal = %.2f, want 349.4", est)
+	}
+	for _, stated := range []float64{35, 150, 560} { // a dropped digit, a guess, a slip
+		if _, far := EnergyFarOff(stated, 78.24, 7.94, 0.52); !far {
+			t.Errorf("%v kcal for rice not flagged", stated)
+		}
+	}
+	if _, far := EnergyFarOff(356, 78.24, 7.94, 0.52); far {
+		t.Error("the table's own 356 kcal for rice flagged")
+	}
+}
