@@ -69,7 +69,7 @@ CREATE TABLE training_sessions (
     -- rpe: 1-10; pct_vo2max: 20-120; zone: NULL (the named zone is in intensity_zone)
     intensity_value numeric(5,1),
     intensity_zone  text,
-    distance_km     numeric(7,2) CHECK (distance_km > 0 AND distance_km <= 1000),
+    distance_km     numeric(8,3) CHECK (distance_km > 0 AND distance_km <= 1000),
     status          text         NOT NULL DEFAULT 'done' CHECK (status IN ('planned', 'done')),
     notes           text         NOT NULL DEFAULT '' CHECK (length(notes) <= 2000),
     created_at      timestamptz  NOT NULL DEFAULT now(),
@@ -90,7 +90,7 @@ CREATE TABLE events (
     -- IANA zone the event is held in; feed times are shown in it
     time_zone             text         NOT NULL CHECK (length(time_zone) BETWEEN 1 AND 64),
     modality              text         NOT NULL CHECK (modality IN ('run', 'cycle', 'swim', 'row', 'ski', 'triathlon', 'team', 'strength', 'other')),
-    distance_km           numeric(7,2) CHECK (distance_km > 0 AND distance_km <= 1000),
+    distance_km           numeric(8,3) CHECK (distance_km > 0 AND distance_km <= 1000),
     -- for a multi-day event: the duration of one day's racing (e.g. a stage)
     expected_duration_min integer      NOT NULL CHECK (expected_duration_min > 0 AND expected_duration_min <= 1440),
     days                  integer      NOT NULL DEFAULT 1 CHECK (days BETWEEN 1 AND 30),
