@@ -4,4 +4,6 @@ import "github.com/go-chi/chi/v5"
 
 // mountPlanRoutes adds the plan and food pages to the signed-in router.
 // The plans engineer owns this file (issue 4).
-func (s *Server) mountPlanRoutes(r chi.Router) {}
+func (s *Server) mountPlanRoutes(r chi.Router) {
+	s.mountFoodRoutes(r)
+}
