@@ -10,6 +10,7 @@ import (
 	"strconv"
 	"time"
 
+	"larder/internal/forms"
 	"larder/internal/store"
 )
 
@@ -93,4 +94,133 @@ func RoleLabel(role string) string {
 		return "Dietitian"
 	}
 	return role
+}
+
+// MassText shows a measurement as entered: "68.2 kg", or "150.4 lb (68.22 kg)".
+func MassText(m store.BodyMass) string {
+	if m.EnteredUnit == "lb" {
+		return Num(forms.KgToLb(m.MassKg), 1) + " lb (" + Num(m.MassKg, 1) + " kg)"
+	}
+	return Num(m.MassKg, 1) + " kg"
+}
+
+// MassInput is the mass as the form shows it back, in the unit entered.
+func MassInput(m store.BodyMass) string {
+	if m.EnteredUnit == "lb" {
+		return Num(forms.KgToLb(m.MassKg), 1)
+	}
+	return Num(m.MassKg, 2)
+}
+
+// Age is "34 y", or "—" when the date of birth is not recorded.
+func Age(c store.Client, today time.Time) string {
+	if a := c.AgeOn(today); a >= 0 {
+		return strconv.Itoa(a) + " y"
+	}
+	return "—"
+}
+
+// SexLabel names the sex recorded for physiology equations.
+func SexLabel(s string) string {
+	switch s {
+	case store.SexFemale:
+		return "Female"
+	case store.SexMale:
+		return "Male"
+	}
+	return s
+}
+
+// Modalities are the activity choices of training and event forms.
+func Modalities() []Option {
+	out := make([]Option, 0, len(store.Modalities)+1)
+	out = append(out, Option{"", "Choose…"})
+	for _, m := range store.Modalities {
+		out = append(out, Option{m, store.ModalityLabel(m)})
+	}
+	return out
+}
+
+// Zones are the zone choices of the training form.
+func Zones() []Option {
+	out := []Option{{"", "—"}}
+	for _, z := range store.Zones {
+		out = append(out, Option{z, z})
+	}
+	return out
+}
+
+// Duration formats minutes as "1 h 45 min" (or "45 min").
+func Duration(min int) string {
+	if min < 60 {
+		return strconv.Itoa(min) + " min"
+	}
+	if min%60 == 0 {
+		return strconv.Itoa(min/60) + " h"
+	}
+	return strconv.Itoa(min/60) + " h " + strconv.Itoa(min%60) + " min"
+}
+
+// CommonZones are offered as suggestions for an event's time zone; any
+// IANA zone name may be typed.
+var CommonZones = []string{
+	"UTC", "Europe/London", "Europe/Dublin", "Europe/Lisbon", "Europe/Madrid", "Europe/Paris", "Europe/Brussels",
+	"Europe/Amsterdam", "Europe/Berlin", "Europe/Zurich", "Europe/Rome", "Europe/Vienna", "Europe/Oslo",
+	"Europe/Stockholm", "Europe/Copenhagen", "Europe/Helsinki", "Europe/Warsaw", "Europe/Prague", "Europe/Athens",
+	"Europe/Istanbul", "Africa/Johannesburg", "Africa/Nairobi", "Asia/Dubai", "Asia/Kolkata", "Asia/Singapore",
+	"Asia/Hong_Kong", "Asia/Shanghai", "Asia/Tokyo", "Asia/Seoul", "Australia/Perth", "Australia/Adelaide",
+	"Australia/Brisbane", "Australia/Sydney", "Australia/Melbourne", "Pacific/Auckland", "America/St_Johns",
+	"America/Halifax", "America/New_York", "America/Toronto", "America/Chicago", "America/Denver",
+	"America/Phoenix", "America/Los_Angeles", "America/Vancouver", "America/Anchorage", "Pacific/Honolulu",
+	"America/Mexico_City", "America/Bogota", "America/Lima", "America/Sao_Paulo", "America/Argentina/Buenos_Aires",
+	"America/Santiago",
+}
+
+// DateIn formats an instant's date in a zone: "Sun 18 Apr 2027".
+func DateIn(t time.Time, zone string) string {
+	loc, err := time.LoadLocation(zone)
+	if err != nil {
+		loc = time.UTC
+	}
+	return Date(t.In(loc))
+}
+
+// KgPtr formats an optional mass in kg: "58.1 kg", or "—".
+func KgPtr(kg *float64) string {
+	if kg == nil {
+		return "—"
+	}
+	return Num(*kg, 1) + " kg"
+}
+
+// KmPtr formats an optional distance: "42.195 km", or "—".
+func KmPtr(km *float64) string {
+	if km == nil {
+		return "—"
+	}
+	return Num(*km, 3) + " km"
+}
+
+// AuditText describes an audit row in words: "created body mass".
+func AuditText(a store.AuditEntry) string {
+	verb := map[string]string{
+		"create": "created", "update": "changed", "delete": "deleted", "archive": "archived", "unarchive": "unarchived",
+		"sign_in": "signed in", "sign_out": "signed out", "set_password": "set the password of", "change_role": "changed the role of",
+		"disable": "disabled", "enable": "enabled", "load": "loaded",
+	}[a.Action]
+	if verb == "" {
+		verb = a.Action
+	}
+	noun := map[string]string{"client": "client", "body_mass": "a body-mass measurement", "training": "a training session",
+		"event": "an event", "user": "staff account", "setting": "a practice setting", "demo": "the demo practice"}[a.Entity]
+	if noun == "" {
+		noun = a.Entity
+	}
+	if a.Action == "sign_in" || a.Action == "sign_out" {
+		return verb
+	}
+	if a.EntityID != nil && (a.Entity == "client" || a.Entity == "user") {
+		return verb + " " + noun + " #" + strconv.FormatInt(*a.EntityID, 10)
+	}
+	return verb + " " + noun
 }

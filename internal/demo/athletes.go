@@ -99,7 +99,7 @@ func athletes() []athlete {
 			key: "triathlete", name: "Priya Venkataraman", sex: "female", age: 31, birthMonthsAgo: 7, heightCm: 162,
 			sport: "Triathlon (standard distance)", unit: "kg", baseKg: 55.2, trendKgPerWeek: 0, method: "scale, morning, fasted",
 			cautions: "Type 1 diabetes (insulin pump). Any change to carbohydrate around training or racing must be agreed with her diabetes team; she checks glucose before, during and after sessions.",
-			notes: "Works with her endocrinologist on insulin adjustments; carries glucose tablets on every session.",
+			notes:    "Works with her endocrinologist on insulin adjustments; carries glucose tablets on every session.",
 			week: func(wd time.Weekday, weeksToGo int) []session {
 				switch wd {
 				case time.Monday:
@@ -126,7 +126,7 @@ func athletes() []athlete {
 			key: "trail", name: "Jonah Whitfield", sex: "male", age: 41, birthMonthsAgo: 11, heightCm: 176,
 			sport: "Trail running", unit: "lb", baseKg: 70.5, trendKgPerWeek: -0.12, method: "home scale",
 			cautions: "History of gut upset on long runs (cramping, urgency). Trial any race food in training first; low-fibre choices in the 24 h before long efforts.",
-			notes: "Enters his body mass in pounds.",
+			notes:    "Enters his body mass in pounds.",
 			week: func(wd time.Weekday, weeksToGo int) []session {
 				switch wd {
 				case time.Tuesday:

@@ -8,7 +8,7 @@
 //	form:"mass"        the input's name
 //	label:"Body mass"  how the message names the field
 //	unit:"kg"          optional; appended to range messages
-//	msg:"..."          optional; replaces the range (or eqfield) message
+//	msg:"..."          optional; replaces every message but "required"
 //
 // Supported field types: string (trimmed), bool (checkbox), int, *int,
 // float64, *float64 (empty gives nil; a comma is read as a decimal point),
@@ -295,6 +295,9 @@ func Message(sf reflect.StructField, tag, param string) string {
 		return s + " " + unit
 	}
 	isString := sf.Type.Kind() == reflect.String
+	if m := sf.Tag.Get("msg"); m != "" && !strings.HasPrefix(tag, "required") {
+		return m
+	}
 	switch tag {
 	case "required", "required_if", "required_unless", "required_with":
 		if tag == "required_if" || tag == "required_with" {
@@ -312,9 +315,6 @@ func Message(sf reflect.StructField, tag, param string) string {
 	case "localdatetime":
 		return l + " must be a date and time like 2027-04-18 08:30."
 	case "eqfield":
-		if m := sf.Tag.Get("msg"); m != "" {
-			return m
-		}
 		return l + " does not match."
 	}
 	if isString {
@@ -327,9 +327,6 @@ func Message(sf reflect.StructField, tag, param string) string {
 	}
 	switch tag {
 	case "gt", "gte", "lt", "lte", "min", "max":
-		if m := sf.Tag.Get("msg"); m != "" {
-			return m
-		}
 		lo, hi, loStrict, hiStrict := rangeOf(sf)
 		switch {
 		case lo != "" && hi != "" && !loStrict && !hiStrict:

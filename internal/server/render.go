@@ -1,8 +1,11 @@
 package server
 
 import (
+	"errors"
 	"net/http"
 	"strconv"
+
+	"github.com/jackc/pgx/v5/pgconn"
 
 	"github.com/a-h/templ"
 	"github.com/go-chi/chi/v5"
@@ -106,4 +109,9 @@ func (s *Server) ParseForm(w http.ResponseWriter, r *http.Request) bool {
 		return false
 	}
 	return true
+}
+
+func isForeignKeyViolation(err error) bool {
+	var pe *pgconn.PgError
+	return errors.As(err, &pe) && pe.Code == "23503"
 }

@@ -1,0 +1,310 @@
+package server
+
+import (
+	"net/http"
+
+	"larder/internal/forms"
+	"larder/internal/store"
+	"larder/web"
+)
+
+// Body mass, training and events are records of a client; each has a new
+// page, an edit page (with delete), and the POSTs behind them. Every record
+// is looked up together with its client id, so one client's URL cannot
+// reach another client's rows.
+
+func (s *Server) bodyMassNewPage(w http.ResponseWriter, r *http.Request) {
+	c, ok := s.ClientFromURL(w, r)
+	if !ok {
+		return
+	}
+	f := forms.New()
+	f.Values.Set("measured_on", web.ISODate(s.Today()))
+	f.Values.Set("unit", s.lastMassUnit(r, c.ID))
+	s.Render(w, r, http.StatusOK, "Add body mass", "clients", web.BodyMassForm(c, nil, f))
+}
+
+// lastMassUnit is the unit of the client's latest measurement (kg if none),
+// so a client who weighs in pounds gets lb preselected.
+func (s *Server) lastMassUnit(r *http.Request, clientID int64) string {
+	if m, err := s.Store.LatestBodyMass(r.Context(), clientID); err == nil {
+		return m.EnteredUnit
+	}
+	return "kg"
+}
+
+func (s *Server) bodyMassCreate(w http.ResponseWriter, r *http.Request) {
+	c, ok := s.ClientFromURL(w, r)
+	if !ok || !s.ParseForm(w, r) {
+		return
+	}
+	var in bodyMassForm
+	f := forms.Decode(r.PostForm, &in)
+	in.check(f, s.Today())
+	if f.Has() {
+		s.Render(w, r, http.StatusUnprocessableEntity, "Add body mass", "clients", web.BodyMassForm(c, nil, f))
+		return
+	}
+	m := store.BodyMass{ClientID: c.ID}
+	in.apply(&m)
+	if err := s.Store.AddBodyMass(r.Context(), Actor(r), &m); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Flash(r, "Body mass "+web.MassText(m)+" on "+web.Date(m.MeasuredOn)+" saved.")
+	Redirect(w, r, web.Path("clients", c.ID)+"#body-mass")
+}
+
+func (s *Server) bodyMassFromURL(w http.ResponseWriter, r *http.Request) (store.Client, store.BodyMass, bool) {
+	c, ok := s.ClientFromURL(w, r)
+	if !ok {
+		return c, store.BodyMass{}, false
+	}
+	id, ok := s.ParamID(w, r, "id")
+	if !ok {
+		return c, store.BodyMass{}, false
+	}
+	m, err := s.Store.BodyMassByID(r.Context(), c.ID, id)
+	if err != nil {
+		s.StoreError(w, r, err)
+		return c, m, false
+	}
+	return c, m, true
+}
+
+func (s *Server) bodyMassEditPage(w http.ResponseWriter, r *http.Request) {
+	c, m, ok := s.bodyMassFromURL(w, r)
+	if !ok {
+		return
+	}
+	s.Render(w, r, http.StatusOK, "Edit body mass", "clients", web.BodyMassForm(c, &m, forms.FromValues(bodyMassValues(m))))
+}
+
+func (s *Server) bodyMassUpdate(w http.ResponseWriter, r *http.Request) {
+	c, m, ok := s.bodyMassFromURL(w, r)
+	if !ok || !s.ParseForm(w, r) {
+		return
+	}
+	var in bodyMassForm
+	f := forms.Decode(r.PostForm, &in)
+	in.check(f, s.Today())
+	if f.Has() {
+		s.Render(w, r, http.StatusUnprocessableEntity, "Edit body mass", "clients", web.BodyMassForm(c, &m, f))
+		return
+	}
+	in.apply(&m)
+	if err := s.Store.UpdateBodyMass(r.Context(), Actor(r), &m); err != nil {
+		s.StoreError(w, r, err)
+		return
+	}
+	s.Flash(r, "Measurement of "+web.Date(m.MeasuredOn)+" saved.")
+	Redirect(w, r, web.Path("clients", c.ID)+"#body-mass")
+}
+
+func (s *Server) bodyMassDelete(w http.ResponseWriter, r *http.Request) {
+	c, m, ok := s.bodyMassFromURL(w, r)
+	if !ok {
+		return
+	}
+	if err := s.Store.DeleteBodyMass(r.Context(), Actor(r), c.ID, m.ID); err != nil {
+		s.StoreError(w, r, err)
+		return
+	}
+	s.Flash(r, "Measurement of "+web.Date(m.MeasuredOn)+" ("+web.MassText(m)+") deleted.")
+	Redirect(w, r, web.Path("clients", c.ID)+"#body-mass")
+}
+
+func (s *Server) trainingNewPage(w http.ResponseWriter, r *http.Request) {
+	c, ok := s.ClientFromURL(w, r)
+	if !ok {
+		return
+	}
+	f := forms.New()
+	f.Values.Set("on_date", web.ISODate(s.Today()))
+	f.Values.Set("intensity_kind", store.IntensityRPE)
+	f.Values.Set("status", store.StatusDone)
+	s.Render(w, r, http.StatusOK, "Add training", "clients", web.TrainingForm(c, nil, f))
+}
+
+func (s *Server) trainingCreate(w http.ResponseWriter, r *http.Request) {
+	c, ok := s.ClientFromURL(w, r)
+	if !ok || !s.ParseForm(w, r) {
+		return
+	}
+	var in trainingForm
+	f := forms.Decode(r.PostForm, &in)
+	in.check(f, s.Today())
+	if f.Has() {
+		s.Render(w, r, http.StatusUnprocessableEntity, "Add training", "clients", web.TrainingForm(c, nil, f))
+		return
+	}
+	t := store.TrainingSession{ClientID: c.ID}
+	in.apply(&t)
+	if err := s.Store.AddTraining(r.Context(), Actor(r), &t); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Flash(r, "Training on "+web.Date(t.OnDate)+" saved.")
+	Redirect(w, r, web.Path("clients", c.ID)+"#training")
+}
+
+func (s *Server) trainingFromURL(w http.ResponseWriter, r *http.Request) (store.Client, store.TrainingSession, bool) {
+	c, ok := s.ClientFromURL(w, r)
+	if !ok {
+		return c, store.TrainingSession{}, false
+	}
+	id, ok := s.ParamID(w, r, "id")
+	if !ok {
+		return c, store.TrainingSession{}, false
+	}
+	t, err := s.Store.TrainingByID(r.Context(), c.ID, id)
+	if err != nil {
+		s.StoreError(w, r, err)
+		return c, t, false
+	}
+	return c, t, true
+}
+
+func (s *Server) trainingEditPage(w http.ResponseWriter, r *http.Request) {
+	c, t, ok := s.trainingFromURL(w, r)
+	if !ok {
+		return
+	}
+	s.Render(w, r, http.StatusOK, "Edit training", "clients", web.TrainingForm(c, &t, forms.FromValues(trainingValues(t))))
+}
+
+func (s *Server) trainingUpdate(w http.ResponseWriter, r *http.Request) {
+	c, t, ok := s.trainingFromURL(w, r)
+	if !ok || !s.ParseForm(w, r) {
+		return
+	}
+	var in trainingForm
+	f := forms.Decode(r.PostForm, &in)
+	in.check(f, s.Today())
+	if f.Has() {
+		s.Render(w, r, http.StatusUnprocessableEntity, "Edit training", "clients", web.TrainingForm(c, &t, f))
+		return
+	}
+	in.apply(&t)
+	if err := s.Store.UpdateTraining(r.Context(), Actor(r), &t); err != nil {
+		s.StoreError(w, r, err)
+		return
+	}
+	s.Flash(r, "Training on "+web.Date(t.OnDate)+" saved.")
+	Redirect(w, r, web.Path("clients", c.ID)+"#training")
+}
+
+func (s *Server) trainingDelete(w http.ResponseWriter, r *http.Request) {
+	c, t, ok := s.trainingFromURL(w, r)
+	if !ok {
+		return
+	}
+	if err := s.Store.DeleteTraining(r.Context(), Actor(r), c.ID, t.ID); err != nil {
+		s.StoreError(w, r, err)
+		return
+	}
+	s.Flash(r, "Training on "+web.Date(t.OnDate)+" deleted.")
+	Redirect(w, r, web.Path("clients", c.ID)+"#training")
+}
+
+func (s *Server) eventNewPage(w http.ResponseWriter, r *http.Request) {
+	c, ok := s.ClientFromURL(w, r)
+	if !ok {
+		return
+	}
+	f := forms.New()
+	f.Values.Set("priority", "A")
+	f.Values.Set("days", "1")
+	// Most clients race where they raced before: offer the zone of their latest event.
+	f.Values.Set("time_zone", "UTC")
+	if evs, err := s.Store.ListEvents(r.Context(), c.ID); err == nil && len(evs) > 0 {
+		f.Values.Set("time_zone", evs[len(evs)-1].TimeZone)
+	}
+	s.Render(w, r, http.StatusOK, "Add event", "clients", web.EventForm(c, nil, f))
+}
+
+func (s *Server) eventCreate(w http.ResponseWriter, r *http.Request) {
+	c, ok := s.ClientFromURL(w, r)
+	if !ok || !s.ParseForm(w, r) {
+		return
+	}
+	var in eventForm
+	f := forms.Decode(r.PostForm, &in)
+	in.check(f, s.Today())
+	if f.Has() {
+		s.Render(w, r, http.StatusUnprocessableEntity, "Add event", "clients", web.EventForm(c, nil, f))
+		return
+	}
+	e := store.Event{ClientID: c.ID}
+	in.apply(&e)
+	if err := s.Store.AddEvent(r.Context(), Actor(r), &e); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Flash(r, "Event "+e.Name+" saved.")
+	Redirect(w, r, web.Path("clients", c.ID)+"#events")
+}
+
+func (s *Server) eventFromURL(w http.ResponseWriter, r *http.Request) (store.Client, store.Event, bool) {
+	c, ok := s.ClientFromURL(w, r)
+	if !ok {
+		return c, store.Event{}, false
+	}
+	id, ok := s.ParamID(w, r, "id")
+	if !ok {
+		return c, store.Event{}, false
+	}
+	e, err := s.Store.EventByID(r.Context(), c.ID, id)
+	if err != nil {
+		s.StoreError(w, r, err)
+		return c, e, false
+	}
+	return c, e, true
+}
+
+func (s *Server) eventEditPage(w http.ResponseWriter, r *http.Request) {
+	c, e, ok := s.eventFromURL(w, r)
+	if !ok {
+		return
+	}
+	s.Render(w, r, http.StatusOK, "Edit event", "clients", web.EventForm(c, &e, forms.FromValues(eventValues(e))))
+}
+
+func (s *Server) eventUpdate(w http.ResponseWriter, r *http.Request) {
+	c, e, ok := s.eventFromURL(w, r)
+	if !ok || !s.ParseForm(w, r) {
+		return
+	}
+	var in eventForm
+	f := forms.Decode(r.PostForm, &in)
+	in.check(f, s.Today())
+	if f.Has() {
+		s.Render(w, r, http.StatusUnprocessableEntity, "Edit event", "clients", web.EventForm(c, &e, f))
+		return
+	}
+	in.apply(&e)
+	if err := s.Store.UpdateEvent(r.Context(), Actor(r), &e); err != nil {
+		s.StoreError(w, r, err)
+		return
+	}
+	s.Flash(r, "Event "+e.Name+" saved.")
+	Redirect(w, r, web.Path("clients", c.ID)+"#events")
+}
+
+func (s *Server) eventDelete(w http.ResponseWriter, r *http.Request) {
+	c, e, ok := s.eventFromURL(w, r)
+	if !ok {
+		return
+	}
+	if err := s.Store.DeleteEvent(r.Context(), Actor(r), c.ID, e.ID); err != nil {
+		if isForeignKeyViolation(err) {
+			s.Flash(r, "The event "+e.Name+" has plans made for it, so it cannot be deleted. Change it instead, or delete its plans first.")
+			Redirect(w, r, web.Path("clients", c.ID, "events", e.ID, "edit"))
+			return
+		}
+		s.StoreError(w, r, err)
+		return
+	}
+	s.Flash(r, "Event "+e.Name+" deleted.")
+	Redirect(w, r, web.Path("clients", c.ID)+"#events")
+}
