@@ -113,14 +113,40 @@ var Guidelines = []Guideline{
 	{"atwater.alcohol", "alcohol energy", 7, 7, "kcal/g", SrcAtwater},
 	{"kj-per-kcal", "1 kcal = 4.184 kJ", 4.184, 4.184, "kJ/kcal", SrcAtwater},
 	{"met", "1 MET ≈ 1 kcal/kg/h ≈ 3.5 ml O2/kg/min", 1, 3.5, "kcal/kg/h; ml/kg/min", SrcAinsworth},
+	// MET values for sessions (Min = easy, Max = hard, moderate = midpoint);
+	// the activity values are from memory of the Compendium, not copied.
+	{"met.run", "running, easy to hard (activity values from memory)", 7, 12.5, "MET", SrcAinsworth},
+	{"met.cycle", "cycling, easy to hard (activity values from memory)", 6.8, 10, "MET", SrcAinsworth},
+	{"met.swim", "swimming, easy to hard (activity values from memory)", 6, 10, "MET", SrcAinsworth},
+	{"met.row", "rowing, easy to hard (activity values from memory)", 4.8, 12, "MET", SrcAinsworth},
+	{"met.ski", "cross-country skiing, easy to hard (activity values from memory)", 6.8, 12.5, "MET", SrcAinsworth},
+	{"met.triathlon", "triathlon training, easy to hard (activity values from memory)", 7, 12, "MET", SrcAinsworth},
+	{"met.team", "team sport, easy to hard (activity values from memory)", 6, 10, "MET", SrcAinsworth},
+	{"met.strength", "resistance training, easy to hard (activity values from memory)", 3.5, 6, "MET", SrcAinsworth},
+	{"met.other", "other exercise, easy to hard (activity values from memory)", 5, 9, "MET", SrcAinsworth},
 	{"marathon.wall", "a typical runner at marathon pace with usual stores runs low at roughly 30–35 km", 30, 35, "km", SrcRapoportCP},
 
 	// Model choices (no single reference; see model.go).
 	{"model.typical-density", "starting muscle glycogen density when nothing else is known (middle of the typical band)", 100, 100, "mmol/kg wet muscle", SrcModel},
 	{"model.capacity-density", "asymptote of muscle glycogen density the synthesis model approaches (loaded band's '200+')", 220, 220, "mmol/kg wet muscle", SrcModel},
 	{"model.liver-per-kg", "liver glycogen capacity per kg body mass (gives 112 g at 70 kg, inside 100–120 g)", 1.6, 1.6, "g/kg", SrcModel},
-	{"model.gut-absorption", "most carbohydrate the gut delivers per hour at rest", 90, 90, "g/h", SrcModel},
+	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 1.5 h time constant, at most 90 g/h", 90, 1.5, "g/h; h", SrcModel},
 	{"model.window-boost", "post-exercise boost of the synthesis rate, decaying with a 1.3 h time constant (chosen so a 2 h delay roughly halves the early rate)", 1.2, 1.3, "×; h", SrcModel},
+	{"model.working.swim", "working muscle share of skeletal muscle, swimming", 0.70, 0.70, "share", SrcModel},
+	{"model.working.row", "working muscle share of skeletal muscle, rowing and cross-country skiing", 0.85, 0.85, "share", SrcModel},
+	{"model.working.triathlon", "working muscle share of skeletal muscle, triathlon", 0.75, 0.75, "share", SrcModel},
+	{"model.other-muscle-rate", "synthesis in muscle that did not exercise, as a share of the working muscle's rested rate (supercompensation is local to exercised muscle)", 0.25, 0.25, "share", SrcModel},
+	{"model.rest-cho-ox", "resting and daily-living carbohydrate use at typical stores, scaled by (stores / typical)^1.5 so intake sets the level stores settle at", 0.17, 0.17, "g/kg/h", SrcModel},
+	{"model.resynthesis-peak", "peak synthesis rate used (inside 5–8), at depleted stores just after exercise", 7.5, 7.5, "mmol/kg wet muscle/h", SrcModel},
+	{"model.cover-easy", "share of carbohydrate use intake can cover at easy efforts (40% VO2max and below); falls to 0.35 at 67% VO2max (≈80% of maximum heart rate)", 0.6, 0.6, "share", SrcModel},
+	{"model.race-intensity", "race intensity when none is given, by duration: ≤15 min 95, ≤45 min 90, ≤90 min 85, ≤3 h 80, ≤5 h 72, ≤10 h 65, else 55", 55, 95, "% VO2max", SrcModel},
+	{"during.long-floor", "over 2.5 h, the usual practical intake is 60–90 g/h", 60, 90, "g/h", SrcCommon},
+	{"pre-event.earliest", "earliest practical time for a pre-event meal", 5, 5, "h (05:00)", SrcCommon},
+	{"load.target.two-day", "target on two-day load days (inside 10–12)", 10.5, 10.5, "g/kg", SrcModel},
+	{"load.target.other", "target on one-day and three-day load days", 10, 10, "g/kg", SrcModel},
+	{"protein.target", "daily protein target (inside 1.2–2.0)", 1.6, 1.6, "g/kg/day", SrcModel},
+	{"fat.share", "fat share of energy: 25% on ordinary days, 22% on load days (both above the 20% floor)", 0.22, 0.25, "share of energy", SrcModel},
+	{"recovery.feed", "recovery feed after an event or hard session", 1.0, 1.0, "g/kg", SrcCommon},
 	{"model.run-fraction", "share of a session's work drawn from the working muscle's glycogen vs. blood glucose from the liver", 0.8, 0.8, "share", SrcModel},
 }
 
@@ -202,4 +228,31 @@ var (
 	gModelGut      = guideline("model.gut-absorption")
 	gModelBoost    = guideline("model.window-boost")
 	gModelMuscleFr = guideline("model.run-fraction")
+
+	gWorkSwim      = guideline("model.working.swim")
+	gWorkRow       = guideline("model.working.row")
+	gWorkTri       = guideline("model.working.triathlon")
+	gRestOx        = guideline("model.rest-cho-ox")
+	gOtherRate     = guideline("model.other-muscle-rate")
+	gResynthPeak   = guideline("model.resynthesis-peak")
+	gCoverEasy     = guideline("model.cover-easy")
+	gLongFloor     = guideline("during.long-floor")
+	gPreEarliest   = guideline("pre-event.earliest")
+	gLoadTwoDay    = guideline("load.target.two-day")
+	gLoadOther     = guideline("load.target.other")
+	gProteinTarget = guideline("protein.target")
+	gFatShare      = guideline("fat.share")
+	gRecoveryFeed  = guideline("recovery.feed")
+	gMarathonWall  = guideline("marathon.wall")
+	gLiver70       = guideline("liver.fed-70kg")
+	gMuscle70      = guideline("muscle.70kg")
 )
+
+// metFor returns the MET table entry of a modality.
+func metFor(modality string) Guideline {
+	switch modality {
+	case "run", "cycle", "swim", "row", "ski", "triathlon", "team", "strength":
+		return guideline("met." + modality)
+	}
+	return guideline("met.other")
+}

@@ -175,13 +175,16 @@ type DuringEvent struct {
 
 // Repletion is the plan from the end of one session to the next start.
 type Repletion struct {
-	GapH               float64         `json:"gap_h"`
-	Speedy             bool            `json:"speedy"`
-	ChoGPerKgPerH      float64         `json:"cho_g_per_kg_per_h"` // null in JSON unless Speedy
-	Feeds              []Feed          `json:"feeds"`
-	MuscleGAtNextStart float64         `json:"muscle_g_at_next_start"`
-	MuscleGCapacity    float64         `json:"muscle_g_capacity"`
-	Curve              []GlycogenPoint `json:"curve"`
+	GapH               float64 `json:"gap_h"`
+	Speedy             bool    `json:"speedy"`
+	ChoGPerKgPerH      float64 `json:"cho_g_per_kg_per_h"` // null in JSON unless Speedy
+	Feeds              []Feed  `json:"feeds"`
+	MuscleGAtNextStart float64 `json:"muscle_g_at_next_start"`
+	// The working muscle's share: at the session's end and at the next start.
+	WorkingMuscleGAtEnd       float64         `json:"working_muscle_g_at_end"`
+	WorkingMuscleGAtNextStart float64         `json:"working_muscle_g_at_next_start"`
+	MuscleGCapacity           float64         `json:"muscle_g_capacity"`
+	Curve                     []GlycogenPoint `json:"curve"`
 }
 
 // MarshalJSON writes cho_g_per_kg_per_h as null when the speedy protocol
@@ -204,6 +207,9 @@ type Glycogen struct {
 	MuscleGStart    float64 `json:"muscle_g_start"`
 	LiverGStart     float64 `json:"liver_g_start"`
 	MuscleGCapacity float64 `json:"muscle_g_capacity"`
+	// WorkingMuscleGStart is the part of MuscleGStart in the working muscle:
+	// with the liver, what the event can draw on.
+	WorkingMuscleGStart float64 `json:"working_muscle_g_start"`
 	// Where the stores would run out in the event (null when they last).
 	RunsOutAtKm            *float64 `json:"runs_out_at_km"`
 	RunsOutAtMin           *float64 `json:"runs_out_at_min"`

@@ -1,0 +1,209 @@
+package fuel
+
+import "math"
+
+// Body is the body-composition picture the other models use.
+type Body struct {
+	Sex           string
+	MassKg        float64
+	FFMKg         float64 // 0 when unknown
+	FFMMethod     string
+	SkeletalKg    float64 // skeletal muscle mass (Janssen et al. 2000 shares)
+	WorkingKg     float64 // the muscle doing the work for the modality
+	LiverCapG     float64 // liver glycogen when full and fed
+	VO2max        float64 // ml/kg/min, 0 when unknown
+	WorkingMethod string
+}
+
+// BoerLBM is the Boer (1984) lean body mass estimate in kg from mass (kg)
+// and height (cm).
+func BoerLBM(sex string, massKg, heightCm float64) float64 {
+	if sex == "male" {
+		return 0.407*massKg + 0.267*heightCm - 19.2
+	}
+	return 0.252*massKg + 0.473*heightCm - 48.3
+}
+
+// NewBody derives body composition for a modality. Fat-free mass comes from
+// measured body fat when given, otherwise the Boer estimate from height,
+// otherwise it is unknown. Skeletal muscle is a share of body mass by sex;
+// the working muscle is the legs (Rapoport's leg share) for running,
+// cycling, team and other sports, and a larger share of all skeletal muscle
+// for swimming, rowing, skiing and triathlon (model assumption).
+func NewBody(a Athlete, modality string) Body {
+	b := Body{Sex: a.Sex, MassKg: a.BodyMassKg, FFMMethod: FFMNone}
+	switch {
+	case a.BodyFatPct != nil:
+		b.FFMKg = a.BodyMassKg * (1 - *a.BodyFatPct/100)
+		b.FFMMethod = FFMMeasured
+	case a.HeightCm != nil:
+		b.FFMKg = BoerLBM(a.Sex, a.BodyMassKg, *a.HeightCm)
+		b.FFMMethod = FFMBoer
+		if b.FFMKg <= 0 || b.FFMKg > a.BodyMassKg {
+			b.FFMKg, b.FFMMethod = 0, FFMNone
+		}
+	}
+	muscleShare, legShare := gMuscleFemale.Min, gLegsFemale.Min
+	if a.Sex == "male" {
+		muscleShare, legShare = gMuscleMale.Min, gLegsMale.Min
+	}
+	b.SkeletalKg = a.BodyMassKg * muscleShare
+	switch modality {
+	case "swim":
+		b.WorkingKg = b.SkeletalKg * gWorkSwim.Min
+		b.WorkingMethod = "swimming share of skeletal muscle"
+	case "row", "ski":
+		b.WorkingKg = b.SkeletalKg * gWorkRow.Min
+		b.WorkingMethod = "rowing/skiing share of skeletal muscle"
+	case "triathlon":
+		b.WorkingKg = b.SkeletalKg * gWorkTri.Min
+		b.WorkingMethod = "triathlon share of skeletal muscle"
+	default:
+		b.WorkingKg = a.BodyMassKg * legShare
+		b.WorkingMethod = "leg muscle"
+	}
+	b.LiverCapG = gModelLiver.Min * a.BodyMassKg
+	if a.VO2maxMlKgMin != nil {
+		b.VO2max = *a.VO2maxMlKgMin
+	}
+	return b
+}
+
+// GlycogenG converts a muscle glycogen density (mmol glucosyl units per kg
+// wet muscle) over a muscle mass into grams: 0.162 g per mmol.
+func GlycogenG(densityMmolPerKg, muscleKg float64) float64 {
+	return densityMmolPerKg * muscleKg * gGlucosyl.Min
+}
+
+// WaterWithGlycogenG is the water stored with a mass of glycogen (3 g/g).
+func WaterWithGlycogenG(glycogenG float64) float64 { return glycogenG * gWater.Min }
+
+// WeirKcal is energy expenditure from gas exchange (litres of O2 consumed
+// and CO2 produced), protein ignored.
+func WeirKcal(vo2L, vco2L float64) float64 { return gWeir.Min*vo2L + gWeir.Max*vco2L }
+
+// FraynCHO is carbohydrate oxidation in g/min from VO2 and VCO2 in L/min.
+func FraynCHO(vo2, vco2 float64) float64 { return gFraynCho.Min*vco2 - gFraynCho.Max*vo2 }
+
+// FraynFat is fat oxidation in g/min from VO2 and VCO2 in L/min.
+func FraynFat(vo2, vco2 float64) float64 { return gFraynFat.Min*vo2 - gFraynFat.Max*vco2 }
+
+// AtwaterKcal is the energy of carbohydrate, protein and fat grams.
+func AtwaterKcal(choG, proteinG, fatG float64) float64 {
+	return gAtwaterCho.Min*choG + gAtwaterProt.Min*proteinG + gAtwaterFat.Min*fatG
+}
+
+// ChoShare is the share of energy from carbohydrate at an intensity in
+// %VO2max: a line through the published shape (≈25%: small, ≈65%: about
+// half, ≈85%: about three quarters), continued with the upper slope and
+// held between 0.05 and 0.95.
+func ChoShare(pctVO2max float64) float64 {
+	var s float64
+	switch {
+	case pctVO2max <= 25:
+		s = gShare25.Min
+	case pctVO2max <= 65:
+		s = gShare25.Min + (pctVO2max-25)*(gShare65.Min-gShare25.Min)/40
+	default:
+		s = gShare65.Min + (pctVO2max-65)*(gShare85.Min-gShare65.Min)/20
+	}
+	return math.Max(0.05, math.Min(0.95, s))
+}
+
+// kcalPerLitreO2 is the Weir energy of one litre of oxygen at the RER that
+// a carbohydrate share implies (non-protein RER ≈ 0.7 + 0.3 × share).
+func kcalPerLitreO2(share float64) float64 {
+	rer := 0.7 + 0.3*share
+	return WeirKcal(1, rer)
+}
+
+// intensityPct turns a session intensity into %VO2max: easy 50, moderate 65,
+// hard 80, rpe:N → 40 + 5N, pct:N → N (model assumption).
+func intensityPct(in Intensity) float64 {
+	switch in.Word {
+	case "easy":
+		return 50
+	case "hard":
+		return 80
+	case "rpe":
+		return 40 + 5*in.N
+	case "pct":
+		return in.N
+	}
+	return 65
+}
+
+// metAt interpolates a modality's MET value at %VO2max: easy at 50, the
+// midpoint at 65, hard at 80 and beyond (held).
+func metAt(modality string, pct float64) float64 {
+	g := metTable[modality]
+	if g.Key == "" {
+		g = metTable["other"]
+	}
+	mid := (g.Min + g.Max) / 2
+	switch {
+	case pct <= 50:
+		return g.Min
+	case pct <= 65:
+		return g.Min + (pct-50)*(mid-g.Min)/15
+	case pct <= 80:
+		return mid + (pct-65)*(g.Max-mid)/15
+	}
+	return g.Max
+}
+
+var metTable = func() map[string]Guideline {
+	m := map[string]Guideline{}
+	for _, mod := range []string{"run", "cycle", "swim", "row", "ski", "triathlon", "team", "strength", "other"} {
+		m[mod] = metFor(mod)
+	}
+	return m
+}()
+
+// sessionKcalPerH is the energy rate of exercise: from VO2max at the
+// intensity (Weir) when VO2max is known, otherwise METs × body mass
+// (1 MET ≈ 1 kcal/kg/h).
+func sessionKcalPerH(b Body, modality string, pct float64) float64 {
+	if b.VO2max > 0 {
+		vo2LPerMin := b.VO2max * pct / 100 * b.MassKg / 1000
+		return vo2LPerMin * 60 * kcalPerLitreO2(ChoShare(pct))
+	}
+	return metAt(modality, pct) * gMET.Min * b.MassKg
+}
+
+// defaultRaceIntensity is %VO2max by event duration when none is given.
+func defaultRaceIntensity(min float64) float64 {
+	switch {
+	case min <= 15:
+		return 95
+	case min <= 45:
+		return 90
+	case min <= 90:
+		return 85
+	case min <= 180:
+		return 80
+	case min <= 300:
+		return 72
+	case min <= 600:
+		return 65
+	}
+	return 55
+}
+
+// EventEnergy is the energy of an event in kcal and how it was found:
+// running ≈ 1 kcal/kg/km over the distance; cycling from mechanical work
+// (mean power × time) at ≈ 24% gross efficiency; otherwise from VO2max at
+// the intensity (Weir) or METs.
+func EventEnergy(b Body, e Event, pct float64) (kcal float64, method string) {
+	h := e.ExpectedDurationMin / 60
+	switch {
+	case e.Modality == "run" && e.DistanceKm != nil:
+		return gRunCost.Min * b.MassKg * *e.DistanceKm, "running cost 1 kcal/kg/km"
+	case e.Modality == "cycle" && e.AveragePowerW != nil:
+		workKJ := *e.AveragePowerW * e.ExpectedDurationMin * 60 / 1000
+		return workKJ / gCycleEff.Min / gKJPerKcal.Min, "mechanical work at 24% efficiency"
+	case b.VO2max > 0:
+		return sessionKcalPerH(b, e.Modality, pct) * h, "VO2max at the race intensity (Weir)"
+	}
+	return sessionKcalPerH(b, e.Modality, pct) * h, "METs at the race intensity"
+}

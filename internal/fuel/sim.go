@@ -1,0 +1,266 @@
+package fuel
+
+import (
+	"math"
+	"time"
+)
+
+// The glycogen model, in brief (every figure is in the Guidelines table):
+//
+//   - Three stores: glycogen of the working muscle and of the other
+//     skeletal muscle (densities in mmol glucosyl/kg wet muscle) and liver
+//     glycogen in grams, plus a gut pool of eaten carbohydrate.
+//   - The gut empties first-order with a 1.5 h time constant and delivers
+//     at most 90 g/h (model assumption).
+//   - Resting and daily-living carbohydrate use is 0.17 g/kg/h at typical
+//     stores and scales with (stores/typical)^1.5, so the intake sets the
+//     level stores settle at (model assumption). Absorbed carbohydrate
+//     covers it first; when fasted the liver covers up to its capacity
+//     spread over 10 h (it is the main source of blood glucose for 8–12 h
+//     after a meal, common practice); fat covers the rest.
+//   - Muscle synthesis is rate-limited: peak 7.5 mmol/kg/h (inside the
+//     5–8 of Jentjens and Jeukendrup) at depleted stores just after
+//     exercise, falling as the square root of the room left to zero as
+//     density nears 220 mmol/kg (the
+//     '200+' of the loaded band), and, for the working muscle, boosted
+//     after exercise by a factor that decays with a 1.3 h time constant so
+//     that waiting 2 h roughly halves the early rate (Ivy et al.). Muscle
+//     that did not exercise fills at a quarter of the rested rate. Supply
+//     beyond what muscle and liver can take is oxidised or stored as fat.
+//   - During exercise, carbohydrate use is the energy rate × the share of
+//     carbohydrate at the intensity ÷ 4 kcal/g. Eaten carbohydrate covers
+//     at most 35% of that use at hard efforts (≥ 67% VO2max ≈ 80% of
+//     maximum heart rate, common practice) rising to 60% at easy ones; the
+//     rest comes 80% from working-muscle glycogen and 20% from the liver,
+//     each taking over when the other is empty. The stores "run out" when
+//     both are empty.
+
+// simBody holds the constants of one athlete's simulation.
+type simBody struct {
+	workingKg, otherKg float64
+	liverCapG          float64
+	restOxGPerH        float64 // at typical stores
+	liverDrainGPerH    float64
+	gutGPerH           float64
+}
+
+func newSimBody(b Body) simBody {
+	other := b.SkeletalKg - b.WorkingKg
+	if other < 0 {
+		other = 0
+	}
+	return simBody{
+		workingKg:       b.WorkingKg,
+		otherKg:         other,
+		liverCapG:       b.LiverCapG,
+		restOxGPerH:     gRestOx.Min * b.MassKg,
+		liverDrainGPerH: b.LiverCapG / ((gLiverFedHours.Min + gLiverFedHours.Max) / 2),
+		gutGPerH:        gModelGut.Min,
+	}
+}
+
+// simState is the state of the stores at one moment.
+type simState struct {
+	Dw, Do float64 // working and other muscle glycogen, mmol/kg wet muscle
+	LiverG float64
+	GutG   float64
+	// sinceExH is the time since the working muscle last exercised, hours.
+	sinceExH float64
+}
+
+func (b simBody) muscleG(s simState) float64 {
+	return GlycogenG(s.Dw, b.workingKg) + GlycogenG(s.Do, b.otherKg)
+}
+
+func (b simBody) workingG(s simState) float64 { return GlycogenG(s.Dw, b.workingKg) }
+
+// synthRate is the muscle synthesis ceiling in mmol/kg/h at density d.
+func synthRate(d, sinceExH float64, boosted bool) float64 {
+	capD, lowD := gModelCapacity.Min, gDepleted.Min
+	g := (capD - d) / (capD - lowD)
+	if g <= 0 {
+		return 0
+	}
+	if g > 1 {
+		g = 1
+	}
+	g = math.Sqrt(g)
+	boost, tau := gModelBoost.Min, gModelBoost.Max
+	w := 1 / (1 + boost)
+	if boosted {
+		w = (1 + boost*math.Exp(-sinceExH/tau)) / (1 + boost)
+	}
+	return gResynthPeak.Min * g * w
+}
+
+// coverShare is the share of carbohydrate use that eaten carbohydrate can
+// cover at an intensity.
+func coverShare(pct float64) float64 {
+	hard, easy := gHardCover.Min, gCoverEasy.Min
+	switch {
+	case pct >= 67:
+		return hard
+	case pct <= 40:
+		return easy
+	}
+	return easy + (pct-40)*(hard-easy)/27
+}
+
+// exercise is one bout in the simulation.
+type exercise struct {
+	start, end    int64 // unix seconds
+	choUseGPerH   float64
+	cover         float64
+	intakeGPerH   float64 // eaten continuously during the bout (in-event fuelling)
+	isEvent       bool
+	runsOutAfterH float64 // set by the simulation: hours into the bout the stores ran out, −1 if never
+}
+
+// intake is carbohydrate eaten at one moment.
+type intake struct {
+	at int64
+	g  float64
+}
+
+// step advances the state by dt hours. use is the carbohydrate use of
+// exercise in g/h (0 at rest). It returns the grams of carbohydrate the
+// stores could not supply.
+func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short float64) {
+	s.GutG += eatGPerH * dt
+	// The gut empties first-order (time constant gutTauH), at most gutGPerH.
+	a := math.Min(s.GutG*(1-math.Exp(-dt/gModelGut.Max)), b.gutGPerH*dt)
+	s.GutG -= a
+	if use > 0 {
+		c := use * dt
+		exo := math.Min(a, cover*c)
+		a -= exo
+		e := c - exo
+		wG := GlycogenG(s.Dw, b.workingKg)
+		fromM := gModelMuscleFr.Min * e
+		fromL := e - fromM
+		if fromM > wG {
+			fromL += fromM - wG
+			fromM = wG
+		}
+		if fromL > s.LiverG {
+			extra := fromL - s.LiverG
+			fromL = s.LiverG
+			take := math.Min(extra, wG-fromM)
+			fromM += take
+			short = extra - take
+		}
+		s.LiverG -= fromL
+		if b.workingKg > 0 {
+			s.Dw -= fromM / (b.workingKg * gGlucosyl.Min)
+			if s.Dw < 0 {
+				s.Dw = 0
+			}
+		}
+		s.sinceExH = 0
+		// Left-over absorbed carbohydrate tops up the liver.
+		s.LiverG = math.Min(b.liverCapG, s.LiverG+a)
+		return short
+	}
+	s.sinceExH += dt
+	// Resting and daily-living use, covered by absorbed carbohydrate, then
+	// (up to the fasting drain) by the liver.
+	totalKg := b.workingKg + b.otherKg
+	mean := gModelTypical.Min
+	if totalKg > 0 {
+		mean = (s.Dw*b.workingKg + s.Do*b.otherKg) / totalKg
+	}
+	x := mean / gModelTypical.Min
+	r := b.restOxGPerH * x * math.Sqrt(x) * dt
+	fromGut := math.Min(a, r)
+	a -= fromGut
+	r -= fromGut
+	if r > 0 {
+		d := math.Min(math.Min(r, b.liverDrainGPerH*dt), s.LiverG)
+		s.LiverG -= d
+	}
+	if a <= 0 {
+		return 0
+	}
+	// Muscle synthesis, rate-limited, shared in proportion to demand.
+	k := gGlucosyl.Min * dt
+	dw := synthRate(s.Dw, s.sinceExH, true) * b.workingKg * k
+	do := gOtherRate.Min * synthRate(s.Do, 0, false) * b.otherKg * k
+	if need := dw + do; need > a {
+		f := a / need
+		dw, do = dw*f, do*f
+	}
+	if b.workingKg > 0 {
+		s.Dw += dw / (b.workingKg * gGlucosyl.Min)
+	}
+	if b.otherKg > 0 {
+		s.Do += do / (b.otherKg * gGlucosyl.Min)
+	}
+	a -= dw + do
+	s.LiverG = math.Min(b.liverCapG, s.LiverG+a)
+	return 0
+}
+
+const simStep = 5 * time.Minute
+
+// simulate runs the stores from `from` to `to` (unix seconds) in 5-minute
+// steps over the bouts and intakes (both sorted by time). When curve is not
+// nil it gets a point at every multiple of sampleS seconds (the caller adds
+// the final point). Bouts record when the stores ran out in them.
+func (b simBody) simulate(s simState, from, to int64, ex []exercise, in []intake, curve *[]GlycogenPoint, sampleS int64, loc *time.Location) simState {
+	const dtS = int64(simStep / time.Second)
+	ii, ei := 0, 0
+	for i := range ex {
+		ex[i].runsOutAfterH = -1
+	}
+	for t := from; t < to; t += dtS {
+		dt := simStep.Hours()
+		if t+dtS > to {
+			dt = float64(to-t) / 3600
+		}
+		for ii < len(in) && in[ii].at < t+dtS {
+			if in[ii].at >= from {
+				s.GutG += in[ii].g
+			}
+			ii++
+		}
+		for ei < len(ex) && ex[ei].end <= t {
+			ei++
+		}
+		use, cover, eat := 0.0, 0.0, 0.0
+		if ei < len(ex) && ex[ei].start <= t {
+			use, cover, eat = ex[ei].choUseGPerH, ex[ei].cover, ex[ei].intakeGPerH
+		}
+		if curve != nil && t%sampleS == 0 {
+			*curve = append(*curve, b.point(s, t, loc))
+		}
+		if short := b.step(&s, dt, use, cover, eat); short > 0 && ex[ei].runsOutAfterH < 0 {
+			ex[ei].runsOutAfterH = float64(t-ex[ei].start) / 3600
+		}
+	}
+	return s
+}
+
+func (b simBody) point(s simState, t int64, loc *time.Location) GlycogenPoint {
+	return GlycogenPoint{
+		At:      time.Unix(t, 0).In(loc),
+		MuscleG: round1(b.muscleG(s)),
+		LiverG:  round1(s.LiverG),
+	}
+}
+
+// race runs the stores through an event in 1-minute steps at a constant
+// carbohydrate use and intake, and returns when they ran out (hours, −1 if
+// they lasted) and the state at the finish.
+func (b simBody) race(s simState, durH, useGPerH, cover, eatGPerH float64) (runsOutH float64, end simState) {
+	const dt = 1.0 / 60
+	runsOutH = -1
+	steps := int(math.Ceil(durH / dt))
+	for i := 0; i < steps; i++ {
+		if short := b.step(&s, dt, useGPerH, cover, eatGPerH); short > 0 && runsOutH < 0 {
+			runsOutH = float64(i) * dt
+		}
+	}
+	return runsOutH, s
+}
+
+func round1(x float64) float64 { return math.Round(x*10) / 10 }

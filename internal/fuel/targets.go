@@ -1,0 +1,218 @@
+package fuel
+
+import (
+	"math"
+	"time"
+)
+
+// Load bands. A day's training load is its effective minutes: each
+// session's duration × an intensity factor ((%VO2max − 35)/30, held
+// between 0.3 and 2: easy 0.5, moderate 1, hard 1.5). Under 45 effective
+// minutes is light, under 90 moderate ("about 1 h a day"), under 240 high
+// ("1–3 h a day"), beyond that very high ("over 4–5 h a day"). A day
+// without training is a rest day on the light band (model assumption
+// mapping the published situations onto minutes).
+const (
+	BandRest     = "rest"
+	BandLight    = "light"
+	BandModerate = "moderate"
+	BandHigh     = "high"
+	BandVeryHigh = "very-high"
+)
+
+type band struct {
+	name       string
+	g          Guideline
+	loE, hiE   float64 // effective minutes spanned, for placing the target
+	targetFrac float64 // lowest point of the range used for the target
+}
+
+var bands = [...]band{
+	{BandRest, gBandLight, 0, 0, 0},
+	{BandLight, gBandLight, 0, 45, 0},
+	{BandModerate, gBandModerate, 45, 90, 0},
+	{BandHigh, gBandHigh, 90, 240, 0},
+	{BandVeryHigh, gBandVeryHigh, 240, 420, 0},
+}
+
+func intensityFactor(pct float64) float64 {
+	return math.Max(0.3, math.Min(2, (pct-35)/30))
+}
+
+// dayLoad sums a day's effective minutes and training minutes.
+func dayLoad(sessions []sessionInfo) (effMin, trainMin float64) {
+	for _, s := range sessions {
+		effMin += s.durMin * intensityFactor(s.pct)
+		trainMin += s.durMin
+	}
+	return
+}
+
+func bandFor(effMin, trainMin float64) band {
+	switch {
+	case trainMin == 0:
+		return bands[0]
+	case effMin < 45:
+		return bands[1]
+	case effMin < 90:
+		return bands[2]
+	case effMin < 240:
+		return bands[3]
+	}
+	return bands[4]
+}
+
+// bandTarget places the target inside the band by where the load sits in
+// the band's span of effective minutes, rounded down to a practical 0.5
+// g/kg and kept inside the band. Rest days sit at the lower end.
+func bandTarget(b band, effMin float64) float64 {
+	lo, hi := b.g.Min, b.g.Max
+	if b.name == BandRest {
+		return lo
+	}
+	f := (effMin - b.loE) / (b.hiE - b.loE)
+	f = math.Max(0, math.Min(1, f))
+	t := lo + f*(hi-lo)
+	t = math.Floor(t*2) / 2
+	return math.Max(lo, math.Min(hi, t))
+}
+
+// sessionInfo is a parsed training session.
+type sessionInfo struct {
+	date     string
+	start    time.Time
+	durMin   float64
+	modality string
+	pct      float64
+}
+
+// macros fills protein, fat and energy for a day's carbohydrate. Protein is
+// 1.6 g/kg (inside 1.2–2.0); fat is 25% of energy (22% on load days, to
+// leave room for carbohydrate), both above the 20% floor; energy is the
+// Atwater sum of the rounded grams.
+func macros(d *Day, massKg float64, loadDay bool) {
+	d.ProteinG = math.Round(gProteinTarget.Min * massKg)
+	share := gFatShare.Max
+	if loadDay {
+		share = gFatShare.Min
+	}
+	nonFat := gAtwaterCho.Min*d.ChoG + gAtwaterProt.Min*d.ProteinG
+	energy := nonFat / (1 - share)
+	d.FatG = math.Ceil(energy * share / gAtwaterFat.Min)
+	d.EnergyKcal = math.Round(AtwaterKcal(d.ChoG, d.ProteinG, d.FatG))
+}
+
+// slot is a default eating occasion.
+type slot struct {
+	hhmm   int // minutes after midnight
+	label  string
+	weight float64 // meals 1, snacks 0.5
+}
+
+var schedules = map[int][]slot{
+	1: {{12*60 + 30, "lunch", 1}},
+	2: {{7*60 + 30, "breakfast", 1}, {18*60 + 30, "dinner", 1}},
+	3: {{7*60 + 30, "breakfast", 1}, {12*60 + 30, "lunch", 1}, {18*60 + 30, "dinner", 1}},
+	4: {{7*60 + 30, "breakfast", 1}, {12*60 + 30, "lunch", 1}, {15*60 + 30, "snack", 0.5}, {19 * 60, "dinner", 1}},
+	5: {{7 * 60, "breakfast", 1}, {10 * 60, "snack", 0.5}, {12*60 + 30, "lunch", 1}, {15*60 + 30, "snack", 0.5}, {19 * 60, "dinner", 1}},
+	6: {{7 * 60, "breakfast", 1}, {10 * 60, "snack", 0.5}, {12*60 + 30, "lunch", 1}, {15*60 + 30, "snack", 0.5}, {19 * 60, "dinner", 1}, {21 * 60, "supper", 0.5}},
+}
+
+// scheduleFor gives n eating occasions; beyond 6, snacks are spread evenly
+// between 07:00 and 21:30 around three meals.
+func scheduleFor(n int) []slot {
+	if s, ok := schedules[n]; ok {
+		return s
+	}
+	out := make([]slot, n)
+	span := (21*60 + 30) - 7*60
+	for i := range out {
+		m := 7*60 + span*i/(n-1)
+		out[i] = slot{m, "snack", 0.5}
+	}
+	// The three slots nearest breakfast, lunch and dinner are meals.
+	for _, meal := range []struct {
+		at    int
+		label string
+	}{{7 * 60, "breakfast"}, {12*60 + 30, "lunch"}, {19 * 60, "dinner"}} {
+		best := 0
+		for i := range out {
+			if abs(out[i].hhmm-meal.at) < abs(out[best].hhmm-meal.at) {
+				best = i
+			}
+		}
+		out[best].label, out[best].weight = meal.label, 1
+	}
+	return out
+}
+
+func abs(x int) int {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
+
+// split shares total grams over weights as whole grams that add up exactly
+// (largest remainder), writing into out.
+func split(total float64, weights []float64, out []float64) {
+	var sum float64
+	for _, w := range weights {
+		sum += w
+	}
+	if sum <= 0 || total <= 0 {
+		for i := range out {
+			out[i] = 0
+		}
+		return
+	}
+	t := math.Round(total)
+	var given float64
+	type rem struct {
+		i int
+		r float64
+	}
+	var rems [32]rem
+	for i, w := range weights {
+		exact := t * w / sum
+		out[i] = math.Floor(exact)
+		given += out[i]
+		if i < len(rems) {
+			rems[i] = rem{i, exact - out[i]}
+		}
+	}
+	n := min(len(weights), len(rems))
+	left := int(t - given)
+	for ; left > 0; left-- {
+		best := -1
+		for j := 0; j < n; j++ {
+			if rems[j].r >= 0 && (best < 0 || rems[j].r > rems[best].r) {
+				best = j
+			}
+		}
+		if best < 0 {
+			out[n-1]++
+			continue
+		}
+		out[rems[best].i]++
+		rems[best].r = -1
+	}
+}
+
+// clockOn returns the time hh:mm (minutes after midnight) on a date.
+func clockOn(date time.Time, minutes int) time.Time {
+	y, m, d := date.Date()
+	return time.Date(y, m, d, 0, minutes, 0, 0, date.Location())
+}
+
+// sortFeeds orders feeds by time, keeping the order of equal times
+// (insertion sort: a day has a handful of feeds, and it does not allocate).
+// fixed is permuted alongside.
+func sortFeeds(f []Feed, fixed []bool) {
+	for i := 1; i < len(f); i++ {
+		for j := i; j > 0 && f[j].At.Before(f[j-1].At); j-- {
+			f[j], f[j-1] = f[j-1], f[j]
+			fixed[j], fixed[j-1] = fixed[j-1], fixed[j]
+		}
+	}
+}
