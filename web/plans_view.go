@@ -1,0 +1,153 @@
+package web
+
+import (
+	_ "embed"
+
+	"larder/internal/forms"
+)
+
+// PlanCSS is the stylesheet of the plan and foods pages, served at /assets/plans.css.
+//
+//go:embed plans.css
+var PlanCSS []byte
+
+// FindingView is one finding ready to print. Its level is told by the word
+// and the symbol (a shape) as well as the colour of its class.
+type FindingView struct {
+	Level   string // ok | note | caution | outside
+	Symbol  string
+	Word    string
+	Message string
+	Source  string
+	Code    string
+}
+
+// LevelSymbol and LevelWord name a finding level for display.
+func LevelSymbol(level string) string {
+	switch level {
+	case "ok":
+		return "✓"
+	case "note":
+		return "◆"
+	case "caution":
+		return "▲"
+	case "outside":
+		return "✖"
+	}
+	return "•"
+}
+
+// LevelWord is the word shown with a finding's symbol.
+func LevelWord(level string) string {
+	switch level {
+	case "ok":
+		return "Within guideline"
+	case "note":
+		return "Note"
+	case "caution":
+		return "Caution"
+	case "outside":
+		return "Outside guideline"
+	}
+	return level
+}
+
+// FeedView is one feed of a day (or of the repletion window).
+type FeedView struct {
+	TimeName, ChoName string // form input names of its overrides
+	Time              string // "07:00" in the plan's zone
+	Label             string
+	ChoG, ProteinG    string
+	Overridden        bool
+	Suggestion        string
+	Findings          []FindingView
+}
+
+// DayView is one row of the day-by-day table with its feeds.
+type DayView struct {
+	Date, DateLabel    string
+	Role               string
+	Training           string
+	LoadBand           string
+	Band               string // "10–12 g/kg"
+	GPerKg             string
+	ChoG               string
+	ProteinG           string
+	FatG               string
+	EnergyKcal         string
+	Occasions          string // number of feeds
+	GPerKgName         string // form input names
+	OccasionsName      string
+	Overridden         bool
+	LowFibre           bool
+	Advice             []string
+	Feeds              []FeedView
+	Findings           []FindingView
+	EnergyAvailability string
+}
+
+// Fact is a labelled figure with its findings (pre-event meal, in-event g/h ...).
+type Fact struct {
+	Label      string
+	Value      string
+	Hint       string
+	Overridden bool
+	Findings   []FindingView
+}
+
+// VersionView is one row of the version history.
+type VersionView struct {
+	Number      int
+	Status      string
+	CreatedBy   string
+	CreatedAt   string
+	PublishedAt string
+	Current     bool
+	URL         string
+}
+
+// PlanView is everything the plan page prints; every number arrives formatted.
+type PlanView struct {
+	ClientID       int64
+	ClientName     string
+	ClientCautions string
+	PlanID         int64
+	Title          string
+	KindLabel      string
+	Protocol       string
+	EventLabel     string
+	TimeZone       string
+	Version        int
+	Status         string
+	Revision       int
+	Editable       bool // a draft: overrides may be changed and saved
+	Revisable      bool // a published version with no draft yet
+	DraftURL       string
+	ActionURL      string
+	ReviseURL      string
+
+	BodyMass        string
+	BodyMassWarning string
+	FatFreeMass     string
+	Caution         string
+
+	PlanFindings   []FindingView
+	Days           []DayView
+	PreEvent       *Fact
+	During         *Fact
+	DuringName     string // form input name of the in-event g/h override
+	DuringSugg     string
+	Glycogen       []Fact
+	Repletion      *Fact
+	RepletionFeeds []FeedView
+	MassGain       string
+
+	GPerKgChart   []byte // SVG
+	GlycogenChart []byte
+
+	Versions []VersionView
+
+	Form      forms.Form // override inputs: what the user typed, and errors
+	Notice    string     // e.g. the concurrent-edit message
+	Tolerance string     // the food suggestions' tolerance, in words
+}
