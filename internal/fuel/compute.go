@@ -235,7 +235,17 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 		d.ChoG = fixedCho
 		d.ChoGPerKg = round1(d.ChoG / mass)
 	}
-	macros(&d, mass, dp.loadDay)
+	sess := p.sessionsOn(d.Date)
+	var exKcal float64
+	for _, s := range sess {
+		exKcal += sessionKcalPerH(p.body, s.modality, s.pct) * s.durMin / 60
+	}
+	if d.Role == RoleEvent && p.ev != nil {
+		exKcal += p.evKcal
+	}
+	exKcal = math.Round(exKcal)
+	d.ExerciseEnergyKcal = &exKcal
+	macros(&d, mass, p.body.FFMKg, exKcal, dp.loadDay)
 
 	// Ordinary eating occasions, moved out of training and dropped in
 	// blocked windows.
@@ -249,7 +259,6 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	var weights [16]float64
 	var idx [16]int
 	nw := 0
-	sess := p.sessionsOn(d.Date)
 	for _, sl := range sched {
 		at := clockOn(dp.date, sl.hhmm)
 		for _, s := range sess {
@@ -305,16 +314,8 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	d.Feeds = feeds
 	p.applyFeedOverrides(&d, dp, fixed[:nf])
 
-	// Exercise energy and energy availability.
-	var exKcal float64
-	for _, s := range sess {
-		exKcal += sessionKcalPerH(p.body, s.modality, s.pct) * s.durMin / 60
-	}
-	if d.Role == RoleEvent && p.ev != nil {
-		exKcal += p.evKcal
-	}
-	exKcal = math.Round(exKcal)
-	d.ExerciseEnergyKcal = &exKcal
+	// Energy availability.
+	exKcal = *d.ExerciseEnergyKcal
 	if p.body.FFMKg > 0 {
 		ea := round1((d.EnergyKcal - exKcal) / p.body.FFMKg)
 		d.EnergyAvailability = &ea
@@ -395,7 +396,7 @@ func (p *planner) applyFeedOverrides(d *Day, dp *dayPlan, fixed []bool) {
 			d.ChoG = fixedSum
 			d.ChoGPerKg = round1(d.ChoG / p.body.MassKg)
 			d.Overridden = true
-			macros(d, p.body.MassKg, dp.loadDay)
+			macros(d, p.body.MassKg, p.body.FFMKg, *d.ExerciseEnergyKcal, dp.loadDay)
 		}
 	} else {
 		w := weights[:0]
@@ -617,7 +618,7 @@ func (p *planner) eventDay(date time.Time, rate float64) dayPlan {
 // known: the floor of the duration's band.
 func gDuringFloor(min float64) float64 {
 	switch {
-	case min < gDuringSmall.Max:
+	case min <= gDuringSmall.Max:
 		return 0
 	case min <= gDuring3060Time.Max:
 		return gDuring3060.Min
@@ -666,7 +667,7 @@ func (p *planner) duringEventPlan(rate float64) *DuringEvent {
 
 func duringBand(min float64) string {
 	switch {
-	case min < gDuringNone.Max:
+	case min <= gDuringNone.Max:
 		return "none"
 	case min < gDuringSmall.Max:
 		return "small"
@@ -737,10 +738,11 @@ func (p *planner) week() {
 	s := p.sb.simulate(p.startState(), from, to, ex, in, &curve, 3600, p.loc)
 	curve = append(curve, p.sb.point(s, to, p.loc))
 	p.plan.Glycogen = &Glycogen{
-		MuscleGStart:    math.Round(p.sb.muscleG(s)),
-		LiverGStart:     math.Round(s.LiverG),
-		MuscleGCapacity: math.Round(GlycogenG(gModelCapacity.Min, p.body.SkeletalKg)),
-		Curve:           curve,
+		MuscleGStart:        math.Round(p.sb.muscleG(s)),
+		WorkingMuscleGStart: math.Round(p.sb.workingG(s)),
+		LiverGStart:         math.Round(s.LiverG),
+		MuscleGCapacity:     math.Round(GlycogenG(gModelCapacity.Min, p.body.SkeletalKg)),
+		Curve:               curve,
 	}
 	p.find("week-glycogen", LevelNote, "glycogen", SrcModel,
 		"For a week plan the glycogen figures are the expected state at the end of the last day: muscle about %.0f g, liver about %.0f g.",
@@ -985,7 +987,15 @@ func (p *planner) repletion() {
 	blocked := []window{{end, windowEnd}, {next.Add(-time.Hour), next.Add(90 * time.Minute)}}
 	for i, dt := range dateSeq(first, nDays) {
 		dp := p.trainingDay(dt, RoleRepletion)
-		dp.fixed = dp.fixed[:0]
+		// Recovery feeds of later sessions stay; the refuelling replaces
+		// the one of the session that just ended.
+		keep := dp.fixed[:0]
+		for _, f := range dp.fixed {
+			if !f.At.Before(windowEnd) && !f.At.Before(next) {
+				keep = append(keep, f)
+			}
+		}
+		dp.fixed = keep
 		dp.blocked = append(dp.blocked[:0], blocked...)
 		ds := dp.day.Date
 		for _, f := range r.Feeds {

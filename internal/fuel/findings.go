@@ -179,7 +179,7 @@ func (p *planner) checkDay(d *Day) {
 		}
 	}
 	// Feeds: overrides, protein at main meals, long gaps.
-	prev := -1
+	var prevAt time.Time
 	for i, f := range d.Feeds {
 		fs := fmt.Sprintf("feed:%s:%d", d.Date, i)
 		if f.Overridden {
@@ -195,17 +195,19 @@ func (p *planner) checkDay(d *Day) {
 					f.Label, f.At.Format("15:04"), f.ProteinG, gProteinMeal.Min, math.Round(gProteinMeal.Min*mass))
 			}
 		}
-		if f.Label != labelDuring {
-			if prev >= 0 {
-				gap := f.At.Sub(d.Feeds[prev].At).Hours()
-				if gap > 5 {
-					p.find("feed-gap", LevelNote, fs, SrcACSM,
-						"%.1f h pass without food before the %s at %s; protein and carbohydrate are best spread every 3–5 h.",
-						gap, f.Label, f.At.Format("15:04"))
-				}
-			}
-			prev = i
+		if f.Label == labelDuring {
+			prevAt = p.evEnd // fed through the event
+			continue
 		}
+		if !prevAt.IsZero() {
+			gap := f.At.Sub(prevAt).Hours()
+			if gap > 5 {
+				p.find("feed-gap", LevelNote, fs, SrcACSM,
+					"%.1f h pass without food before the %s at %s; protein and carbohydrate are best spread every 3–5 h.",
+					gap, f.Label, f.At.Format("15:04"))
+			}
+		}
+		prevAt = f.At
 	}
 }
 

@@ -130,13 +130,15 @@ var Guidelines = []Guideline{
 	{"model.typical-density", "starting muscle glycogen density when nothing else is known (middle of the typical band)", 100, 100, "mmol/kg wet muscle", SrcModel},
 	{"model.capacity-density", "asymptote of muscle glycogen density the synthesis model approaches (loaded band's '200+')", 220, 220, "mmol/kg wet muscle", SrcModel},
 	{"model.liver-per-kg", "liver glycogen capacity per kg body mass (gives 112 g at 70 kg, inside 100–120 g)", 1.6, 1.6, "g/kg", SrcModel},
-	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 1.5 h time constant, at most 90 g/h", 90, 1.5, "g/h; h", SrcModel},
+	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 2 h time constant, at most 90 g/h", 90, 2.0, "g/h; h", SrcModel},
 	{"model.window-boost", "post-exercise boost of the synthesis rate, decaying with a 1.3 h time constant (chosen so a 2 h delay roughly halves the early rate)", 1.2, 1.3, "×; h", SrcModel},
 	{"model.working.swim", "working muscle share of skeletal muscle, swimming", 0.70, 0.70, "share", SrcModel},
 	{"model.working.row", "working muscle share of skeletal muscle, rowing and cross-country skiing", 0.85, 0.85, "share", SrcModel},
 	{"model.working.triathlon", "working muscle share of skeletal muscle, triathlon", 0.75, 0.75, "share", SrcModel},
 	{"model.other-muscle-rate", "synthesis in muscle that did not exercise, as a share of the working muscle's rested rate (supercompensation is local to exercised muscle)", 0.25, 0.25, "share", SrcModel},
-	{"model.rest-cho-ox", "resting and daily-living carbohydrate use at typical stores, scaled by (stores / typical)^1.5 so intake sets the level stores settle at", 0.17, 0.17, "g/kg/h", SrcModel},
+	{"model.liver-share", "share of absorbed carbohydrate (after resting use) the liver takes first", 0.3, 0.3, "share", SrcModel},
+	{"fat.upper", "fat share of energy used at most when filling an energy target", 0.35, 0.35, "share of energy", SrcCommon},
+	{"model.rest-cho-ox", "resting and daily-living carbohydrate use at typical stores, scaled in proportion to stores / typical so intake sets the level stores settle at", 0.17, 0.17, "g/kg/h", SrcModel},
 	{"model.resynthesis-peak", "peak synthesis rate used (inside 5–8), at depleted stores just after exercise", 7.5, 7.5, "mmol/kg wet muscle/h", SrcModel},
 	{"model.cover-easy", "share of carbohydrate use intake can cover at easy efforts (40% VO2max and below); falls to 0.35 at 67% VO2max (≈80% of maximum heart rate)", 0.6, 0.6, "share", SrcModel},
 	{"model.race-intensity", "race intensity when none is given, by duration: ≤15 min 95, ≤45 min 90, ≤90 min 85, ≤3 h 80, ≤5 h 72, ≤10 h 65, else 55", 55, 95, "% VO2max", SrcModel},
@@ -145,7 +147,7 @@ var Guidelines = []Guideline{
 	{"load.target.two-day", "target on two-day load days (inside 10–12)", 10.5, 10.5, "g/kg", SrcModel},
 	{"load.target.other", "target on one-day and three-day load days", 10, 10, "g/kg", SrcModel},
 	{"protein.target", "daily protein target (inside 1.2–2.0)", 1.6, 1.6, "g/kg/day", SrcModel},
-	{"fat.share", "fat share of energy: 25% on ordinary days, 22% on load days (both above the 20% floor)", 0.22, 0.25, "share of energy", SrcModel},
+	{"fat.share", "fat share of energy when no energy target is known: 25% on ordinary days, 22% on load days (both above the 20% floor)", 0.22, 0.25, "share of energy", SrcModel},
 	{"recovery.feed", "recovery feed after an event or hard session", 1.0, 1.0, "g/kg", SrcCommon},
 	{"model.run-fraction", "share of a session's work drawn from the working muscle's glycogen vs. blood glucose from the liver", 0.8, 0.8, "share", SrcModel},
 }
@@ -233,6 +235,8 @@ var (
 	gWorkRow       = guideline("model.working.row")
 	gWorkTri       = guideline("model.working.triathlon")
 	gRestOx        = guideline("model.rest-cho-ox")
+	gLiverShare    = guideline("model.liver-share")
+	gFatUpper      = guideline("fat.upper")
 	gOtherRate     = guideline("model.other-muscle-rate")
 	gResynthPeak   = guideline("model.resynthesis-peak")
 	gCoverEasy     = guideline("model.cover-easy")

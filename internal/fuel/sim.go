@@ -10,12 +10,13 @@ import (
 //   - Three stores: glycogen of the working muscle and of the other
 //     skeletal muscle (densities in mmol glucosyl/kg wet muscle) and liver
 //     glycogen in grams, plus a gut pool of eaten carbohydrate.
-//   - The gut empties first-order with a 1.5 h time constant and delivers
+//   - The gut empties first-order with a 2 h time constant and delivers
 //     at most 90 g/h (model assumption).
 //   - Resting and daily-living carbohydrate use is 0.17 g/kg/h at typical
-//     stores and scales with (stores/typical)^1.5, so the intake sets the
+//     stores and scales with stores/typical, so the intake sets the
 //     level stores settle at (model assumption). Absorbed carbohydrate
-//     covers it first; when fasted the liver covers up to its capacity
+//     covers it first, the liver takes 30% of the rest (model assumption),
+//     muscle synthesis what it can, the liver what is left; when fasted the liver covers up to its capacity
 //     spread over 10 h (it is the main source of blood glucose for 8–12 h
 //     after a meal, common practice); fat covers the rest.
 //   - Muscle synthesis is rate-limited: peak 7.5 mmol/kg/h (inside the
@@ -127,7 +128,7 @@ type intake struct {
 // stores could not supply.
 func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short float64) {
 	s.GutG += eatGPerH * dt
-	// The gut empties first-order (time constant gutTauH), at most gutGPerH.
+	// The gut empties first-order (2 h time constant), at most gutGPerH.
 	a := math.Min(s.GutG*(1-math.Exp(-dt/gModelGut.Max)), b.gutGPerH*dt)
 	s.GutG -= a
 	if use > 0 {
@@ -170,7 +171,7 @@ func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short floa
 		mean = (s.Dw*b.workingKg + s.Do*b.otherKg) / totalKg
 	}
 	x := mean / gModelTypical.Min
-	r := b.restOxGPerH * x * math.Sqrt(x) * dt
+	r := b.restOxGPerH * x * dt
 	fromGut := math.Min(a, r)
 	a -= fromGut
 	r -= fromGut
@@ -181,7 +182,13 @@ func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short floa
 	if a <= 0 {
 		return 0
 	}
-	// Muscle synthesis, rate-limited, shared in proportion to demand.
+	// The liver takes its share of the supply first, then muscle synthesis
+	// (rate-limited, shared in proportion to demand), then the liver again.
+	toLiver := math.Min(gLiverShare.Min*a, b.liverCapG-s.LiverG)
+	if toLiver > 0 {
+		s.LiverG += toLiver
+		a -= toLiver
+	}
 	k := gGlucosyl.Min * dt
 	dw := synthRate(s.Dw, s.sinceExH, true) * b.workingKg * k
 	do := gOtherRate.Min * synthRate(s.Do, 0, false) * b.otherKg * k

@@ -87,16 +87,28 @@ type sessionInfo struct {
 }
 
 // macros fills protein, fat and energy for a day's carbohydrate. Protein is
-// 1.6 g/kg (inside 1.2–2.0); fat is 25% of energy (22% on load days, to
-// leave room for carbohydrate), both above the 20% floor; energy is the
-// Atwater sum of the rounded grams.
-func macros(d *Day, massKg float64, loadDay bool) {
+// 1.6 g/kg (inside 1.2–2.0). When fat-free mass and exercise energy are
+// known, energy aims at adequate energy availability (45 kcal/kg FFM/day
+// plus the exercise), with fat filling the gap between 20% (22% on load
+// days) and 35% of energy; otherwise fat is 25% of energy (22% on load
+// days). Energy is the Atwater sum of the rounded grams.
+func macros(d *Day, massKg, ffmKg, exKcal float64, loadDay bool) {
 	d.ProteinG = math.Round(gProteinTarget.Min * massKg)
-	share := gFatShare.Max
+	floor := gFatShare.Max
 	if loadDay {
-		share = gFatShare.Min
+		floor = gFatShare.Min
 	}
 	nonFat := gAtwaterCho.Min*d.ChoG + gAtwaterProt.Min*d.ProteinG
+	share := floor
+	if ffmKg > 0 {
+		target := gEAAdequate.Min*ffmKg + exKcal
+		if want := 1 - nonFat/target; want > share {
+			share = math.Min(want, gFatUpper.Min)
+		}
+		if share < gFatFloor.Min+0.02 {
+			share = gFatFloor.Min + 0.02
+		}
+	}
 	energy := nonFat / (1 - share)
 	d.FatG = math.Ceil(energy * share / gAtwaterFat.Min)
 	d.EnergyKcal = math.Round(AtwaterKcal(d.ChoG, d.ProteinG, d.FatG))
