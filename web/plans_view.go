@@ -52,6 +52,17 @@ func LevelWord(level string) string {
 	return level
 }
 
+// countOK counts the findings within their guideline.
+func countOK(fs []FindingView) int {
+	n := 0
+	for _, f := range fs {
+		if f.Level == "ok" {
+			n++
+		}
+	}
+	return n
+}
+
 // FeedView is one feed of a day (or of the repletion window).
 type FeedView struct {
 	TimeName, ChoName string // form input names of its overrides
