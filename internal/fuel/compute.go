@@ -348,7 +348,7 @@ func (p *planner) applyFeedOverrides(d *Day, dp *dayPlan, fixed []bool) {
 		if p.feedOvState == nil {
 			p.feedOvState = make([]string, len(p.req.FeedOverrides))
 		}
-		if o.Index >= len(d.Feeds) {
+		if o.Index >= len(d.Feeds) || o.Index >= len(fixed) {
 			p.feedOvState[i] = fmt.Sprintf("Feed override %d for %s names feed %d, but the day has %d feeds; it was not applied.",
 				i, d.Date, o.Index, len(d.Feeds))
 			continue

@@ -8,8 +8,10 @@ import (
 // Load bands. A day's training load is its effective minutes: each
 // session's duration × an intensity factor ((%VO2max − 35)/30, held
 // between 0.3 and 2: easy 0.5, moderate 1, hard 1.5). Under 45 effective
-// minutes is light, under 90 moderate ("about 1 h a day"), under 240 high
-// ("1–3 h a day"), beyond that very high ("over 4–5 h a day"). A day
+// minutes is light, under 90 moderate ("about 1 h a day"); up to 4 h of
+// training and under 300 effective minutes is high ("1–3 h a day of
+// moderate to high intensity"), beyond that very high ("over 4–5 h a
+// day"). A day
 // without training is a rest day on the light band (model assumption
 // mapping the published situations onto minutes).
 const (
@@ -21,18 +23,16 @@ const (
 )
 
 type band struct {
-	name       string
-	g          Guideline
-	loE, hiE   float64 // effective minutes spanned, for placing the target
-	targetFrac float64 // lowest point of the range used for the target
+	name string
+	g    Guideline
 }
 
 var bands = [...]band{
-	{BandRest, gBandLight, 0, 0, 0},
-	{BandLight, gBandLight, 0, 45, 0},
-	{BandModerate, gBandModerate, 45, 90, 0},
-	{BandHigh, gBandHigh, 90, 240, 0},
-	{BandVeryHigh, gBandVeryHigh, 240, 420, 0},
+	{BandRest, gBandLight},
+	{BandLight, gBandLight},
+	{BandModerate, gBandModerate},
+	{BandHigh, gBandHigh},
+	{BandVeryHigh, gBandVeryHigh},
 }
 
 func intensityFactor(pct float64) float64 {
@@ -56,25 +56,41 @@ func bandFor(effMin, trainMin float64) band {
 		return bands[1]
 	case effMin < 90:
 		return bands[2]
-	case effMin < 240:
+	case trainMin <= 240 && effMin < 300:
 		return bands[3]
 	}
 	return bands[4]
 }
 
-// bandTarget places the target inside the band by where the load sits in
-// the band's span of effective minutes, rounded down to a practical 0.5
-// g/kg and kept inside the band. Rest days sit at the lower end.
+// bandTarget is the day's target: one line through the load, from 3 g/kg
+// at no training through 5 at 45, 6 at 90, 9 at 300 and 12 at 480
+// effective minutes (model assumption), kept inside the day's band and
+// rounded down to a practical 0.5 g/kg. One line for all bands keeps more
+// training from ever meaning less carbohydrate. Rest days sit at the
+// lower end of the light band.
 func bandTarget(b band, effMin float64) float64 {
 	lo, hi := b.g.Min, b.g.Max
 	if b.name == BandRest {
 		return lo
 	}
-	f := (effMin - b.loE) / (b.hiE - b.loE)
-	f = math.Max(0, math.Min(1, f))
-	t := lo + f*(hi-lo)
+	t := targetLine(effMin)
 	t = math.Floor(t*2) / 2
 	return math.Max(lo, math.Min(hi, t))
+}
+
+var lineE = [...]float64{0, 45, 90, 300, 480}
+var lineG = [...]float64{3, 5, 6, 9, 12}
+
+func targetLine(e float64) float64 {
+	if e <= lineE[0] {
+		return lineG[0]
+	}
+	for i := 1; i < len(lineE); i++ {
+		if e <= lineE[i] {
+			return lineG[i-1] + (e-lineE[i-1])*(lineG[i]-lineG[i-1])/(lineE[i]-lineE[i-1])
+		}
+	}
+	return lineG[len(lineG)-1]
 }
 
 // sessionInfo is a parsed training session.

@@ -33,6 +33,16 @@ func (v ValidationError) Error() string {
 	return "invalid request: " + strings.Join(parts, "; ")
 }
 
+// maxSessionsPerDay bounds the training sessions of one day.
+const maxSessionsPerDay = 6
+
+func protocolName(p string) string {
+	if p == "" {
+		return ProtocolTwoDay
+	}
+	return p
+}
+
 // MaxRequestBytes bounds what DecodeRequest reads.
 const MaxRequestBytes = 1 << 20
 
@@ -273,6 +283,38 @@ func (r Request) handChecks() ValidationError {
 		if r.StartDate == "" && len(r.Training) == 0 {
 			add("start_date", "is required for a week plan without training")
 		}
+	}
+	yearOK := func(field string, t time.Time) {
+		if y := t.Year(); y < 2000 || y > 2100 {
+			add(field, "must be a date between the years 2000 and 2100")
+		}
+	}
+	if r.Event != nil && !r.Event.StartsAt.IsZero() {
+		yearOK("event.starts_at", r.Event.StartsAt)
+	}
+	if r.SessionEnd != nil {
+		yearOK("session_end", *r.SessionEnd)
+	}
+	if r.NextStart != nil {
+		yearOK("next_start", *r.NextStart)
+	}
+	perDay := map[string]int{}
+	for i, s := range r.Training {
+		if d, err := time.Parse("2006-01-02", s.Date); err == nil {
+			yearOK(fmt.Sprintf("training[%d].date", i), d)
+		}
+		perDay[s.Date]++
+		if perDay[s.Date] == maxSessionsPerDay+1 {
+			add(fmt.Sprintf("training[%d].date", i), fmt.Sprintf("has more than %d sessions on one day", maxSessionsPerDay))
+		}
+	}
+	if r.StartDate != "" {
+		if d, err := time.Parse("2006-01-02", r.StartDate); err == nil {
+			yearOK("start_date", d)
+		}
+	}
+	if r.Kind == KindLoading && r.TaperDays > 0 && r.TaperDays < loadDaysOf(r.Protocol) {
+		add("taper_days", fmt.Sprintf("must be at least %d, the load days of the %s protocol", loadDaysOf(r.Protocol), protocolName(r.Protocol)))
 	}
 	if r.TimeZone != "" {
 		if _, err := loadLocation(r.TimeZone); err != nil {
