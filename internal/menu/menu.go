@@ -57,13 +57,14 @@ type Suggestion struct {
 	ToleranceG float64 // the sum lies within TargetG ± ToleranceG
 }
 
-// Text is a one-line description such as "2 × 1 medium, peeled (100 g) Banana …".
+// Text is a one-line description such as
+// "Banana, ripe, robusta: 2 × 1 medium, peeled (100 g) = 200 g + …".
 func (s Suggestion) Text() string {
 	parts := make([]string, len(s.Items))
 	for i, it := range s.Items {
-		parts[i] = fmt.Sprintf("%s × %s %s", formatPortions(it.Portions), it.Food.PortionName, it.Food.Name)
+		parts[i] = fmt.Sprintf("%s: %s × %s = %s g", it.Food.Name, formatPortions(it.Portions), it.Food.PortionName, formatPortions(math.Round(it.Grams)))
 	}
-	return strings.Join(parts, " + ")
+	return strings.Join(parts, "; ")
 }
 
 func formatPortions(p float64) string {

@@ -2,6 +2,7 @@ package server
 
 import (
 	"context"
+	"fmt"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -41,21 +42,34 @@ func browserCtx(t *testing.T) context.Context {
 	return ctx
 }
 
-// shot saves a full-page screenshot when LARDER_SCREENSHOTS names a folder,
-// so a person can look at the pages as a user sees them.
+// shot saves screenshots of the page, one per screenful from the top, when
+// LARDER_SCREENSHOTS names a folder, so a person can look at the pages as a
+// user sees them.
 func shot(t *testing.T, ctx context.Context, name string) {
 	dir := os.Getenv("LARDER_SCREENSHOTS")
 	if dir == "" {
 		return
 	}
-	buf, err := chromedp.Run(ctx, chromedp.FullScreenshot(80))
+	height, err := chromedp.Run(ctx, chromedp.Evaluate[float64](`document.documentElement.scrollHeight`))
 	if err != nil {
 		t.Logf("screenshot %s: %v", name, err)
 		return
 	}
-	if err := os.WriteFile(filepath.Join(dir, name+".jpg"), buf, 0o644); err != nil {
-		t.Logf("screenshot %s: %v", name, err)
+	for i, y := 0, 0.0; y < height && i < 6; i, y = i+1, y+950 {
+		if _, err := chromedp.Run(ctx, chromedp.Evaluate[any](fmt.Sprintf("window.scrollTo(0, %f)", y))); err != nil {
+			t.Logf("screenshot %s: %v", name, err)
+			return
+		}
+		buf, err := chromedp.Run(ctx, chromedp.CaptureScreenshot())
+		if err != nil {
+			t.Logf("screenshot %s: %v", name, err)
+			return
+		}
+		if err := os.WriteFile(filepath.Join(dir, fmt.Sprintf("%s-%d.png", name, i)), buf, 0o644); err != nil {
+			t.Logf("screenshot %s: %v", name, err)
+		}
 	}
+	_, _ = chromedp.Run(ctx, chromedp.Evaluate[any]("window.scrollTo(0, 0)"))
 }
 
 func text(t *testing.T, ctx context.Context, sel chromedp.CSS) string {

@@ -454,8 +454,8 @@ func splitCautions(text string) []string {
 	var out []string
 	for _, part := range strings.FieldsFunc(text, func(r rune) bool { return r == '\n' || r == ';' }) {
 		if p := strings.TrimSpace(part); p != "" {
-			if len(p) > 200 {
-				p = p[:200]
+			if r := []rune(p); len(r) > 200 {
+				p = string(r[:200])
 			}
 			out = append(out, p)
 		}
