@@ -182,7 +182,7 @@ func TestFoodsEditWithValidation(t *testing.T) {
 	})
 
 	t.Run("edit", func(t *testing.T) {
-		admin.get(path + "/edit").mustContain(t, `value="`+name+`"`, `value="110"`)
+		admin.get(path+"/edit").mustContain(t, `value="`+name+`"`, `value="110"`)
 		v := foodValuesFor(name)
 		v.Set("carbohydrate_g", "8")
 		v.Set("energy_kcal", "32")
