@@ -6,8 +6,10 @@ package web
 
 import (
 	"embed"
+	"encoding/json"
 	"fmt"
 	"strconv"
+	"strings"
 	"time"
 
 	"larder/internal/forms"
@@ -201,7 +203,8 @@ func KmPtr(km *float64) string {
 	return Num(*km, 3) + " km"
 }
 
-// AuditText describes an audit row in words: "created body mass".
+// AuditText describes an audit row in words, naming the record from its
+// detail: "created a body-mass measurement (2027-02-20)".
 func AuditText(a store.AuditEntry) string {
 	verb := map[string]string{
 		"create": "created", "update": "changed", "delete": "deleted", "archive": "archived", "unarchive": "unarchived",
@@ -211,16 +214,35 @@ func AuditText(a store.AuditEntry) string {
 	if verb == "" {
 		verb = a.Action
 	}
+	if a.Action == "sign_in" || a.Action == "sign_out" {
+		return verb
+	}
 	noun := map[string]string{"client": "client", "body_mass": "a body-mass measurement", "training": "a training session",
 		"event": "an event", "user": "staff account", "setting": "a practice setting", "demo": "the demo practice"}[a.Entity]
 	if noun == "" {
 		noun = a.Entity
 	}
-	if a.Action == "sign_in" || a.Action == "sign_out" {
-		return verb
+	var d map[string]any
+	_ = json.Unmarshal(a.Detail, &d)
+	str := func(k string) string { v, _ := d[k].(string); return v }
+	var what string
+	switch a.Entity {
+	case "client", "event":
+		what = str("name")
+	case "user":
+		what = str("email")
+		if r := str("role"); r != "" && a.Action == "change_role" {
+			what += " to " + strings.ToLower(RoleLabel(r))
+		}
+	case "body_mass":
+		what = str("measured_on")
+	case "training":
+		what = strings.TrimSpace(str("on_date") + " " + store.ModalityLabel(str("modality")))
+	case "setting":
+		what = str("key")
 	}
-	if a.EntityID != nil && (a.Entity == "client" || a.Entity == "user") {
-		return verb + " " + noun + " #" + strconv.FormatInt(*a.EntityID, 10)
+	if what == "" {
+		return verb + " " + noun
 	}
-	return verb + " " + noun
+	return verb + " " + noun + " (" + what + ")"
 }

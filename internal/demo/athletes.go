@@ -1,6 +1,9 @@
 package demo
 
-import "time"
+import (
+	"math"
+	"time"
+)
 
 // The athletes of the demo practice. All people, clubs and races are
 // invented; the training is a plausible week for each sport, not advice.
@@ -28,7 +31,7 @@ func athletes() []athlete {
 				case time.Saturday:
 					return []session{zone(clock("09:00"), "run", 45, "recovery", km(8), "")}
 				case time.Sunday:
-					return []session{zone(clock("08:00"), "run", long, "endurance", km(float64(long)/4.8), "long run with gels every 30 min")}
+					return []session{zone(clock("08:00"), "run", long, "endurance", km(math.Round(float64(long)/4.8)), "long run with gels every 30 min")}
 				}
 				return nil
 			},

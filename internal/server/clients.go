@@ -104,9 +104,12 @@ func (s *Server) clientUnarchive(w http.ResponseWriter, r *http.Request) {
 	Redirect(w, r, web.Path("clients", c.ID))
 }
 
-// recentTrainingDays is how far back the client page lists training unless
-// all of it is asked for.
-const recentTrainingDays = 28
+// The client page lists training from three weeks back to two weeks ahead
+// unless all of it is asked for: what a consultation is about.
+const (
+	trainingDaysBack  = 21
+	trainingDaysAhead = 14
+)
 
 func (s *Server) clientPage(w http.ResponseWriter, r *http.Request) {
 	c, ok := s.ClientFromURL(w, r)
@@ -138,17 +141,17 @@ func (s *Server) clientPage(w http.ResponseWriter, r *http.Request) {
 	allTraining := r.URL.Query().Get("training") == "all"
 	shown := training
 	if !allTraining {
-		cut := today.AddDate(0, 0, -recentTrainingDays)
+		from, to := today.AddDate(0, 0, -trainingDaysBack), today.AddDate(0, 0, trainingDaysAhead)
 		shown = shown[:0:0]
 		for _, t := range training {
-			if !t.OnDate.Before(cut) {
+			if !t.OnDate.Before(from) && !t.OnDate.After(to) {
 				shown = append(shown, t)
 			}
 		}
 	}
 	d := web.ClientPageData{
 		Client: c, Today: today, BodyMass: masses, Training: shown, TrainingTotal: len(training),
-		AllTraining: allTraining, RecentDays: recentTrainingDays, Events: events, History: history,
+		AllTraining: allTraining, DaysBack: trainingDaysBack, DaysAhead: trainingDaysAhead, Events: events, History: history,
 	}
 	if s.ClientPlansSection != nil {
 		if d.Plans, err = s.ClientPlansSection(r, c); err != nil {

@@ -70,7 +70,7 @@ func TestClientCreateEditArchive(t *testing.T) {
 		}
 	}
 	// The client page lists the changes.
-	b.get("/clients/"+cid).mustContain(t, "Recent changes", "archived client", u.Name)
+	b.get("/clients/"+cid).mustContain(t, "Recent changes", "archived client ("+name+" Berg)", "created client ("+name+")", u.Name)
 
 	if res := b.get("/clients/999999999"); res.status != http.StatusNotFound {
 		t.Fatalf("missing client: %d", res.status)

@@ -147,15 +147,16 @@ func (s *Store) UnarchiveClient(ctx context.Context, actor Actor, id int64) erro
 
 func (s *Store) setArchived(ctx context.Context, actor Actor, id int64, archive bool) error {
 	return s.inTx(ctx, func(tx pgx.Tx) error {
-		q := `UPDATE clients SET archived_at = NULL, updated_at = now() WHERE id = $1`
+		q := `UPDATE clients SET archived_at = NULL, updated_at = now() WHERE id = $1 RETURNING name`
 		action := "unarchive"
 		if archive {
-			q = `UPDATE clients SET archived_at = coalesce(archived_at, now()), updated_at = now() WHERE id = $1`
+			q = `UPDATE clients SET archived_at = coalesce(archived_at, now()), updated_at = now() WHERE id = $1 RETURNING name`
 			action = "archive"
 		}
-		if err := execOne(ctx, tx, q, id); err != nil {
-			return err
+		var name string
+		if err := tx.QueryRow(ctx, q, id).Scan(&name); err != nil {
+			return notFound(err)
 		}
-		return AuditTx(ctx, tx, actor, action, "client", id, nil)
+		return AuditTx(ctx, tx, actor, action, "client", id, map[string]any{"name": name})
 	})
 }
