@@ -172,6 +172,7 @@ func TestMarathonWall(t *testing.T) {
 		t.Fatal("stores never ran out; the wall should come at 30–35 km")
 	}
 	km := outH / durH * 42.195
+	t.Logf("usual stores run out at %.1f km (%.0f min)", km, outH*60)
 	if km < gMarathonWall.Min || km > gMarathonWall.Max {
 		t.Errorf("stores run out at %.1f km, want %g–%g km", km, gMarathonWall.Min, gMarathonWall.Max)
 	}

@@ -31,7 +31,10 @@ const Caution = "This plan is a professional's tool, not medical advice. Individ
 	"need individual clinical care. Try any race fuelling in training first. " +
 	"Follow local regulations and licensed practice."
 
-const defaultOccasions = 5
+const (
+	defaultOccasions = 5
+	loadDayOccasions = 6
+)
 
 // planner carries one computation.
 type planner struct {
@@ -212,6 +215,11 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	mass := p.body.MassKg
 	ov := p.dayOverride(d.Date)
 	occ := p.occasions
+	if dp.loadDay && occ < loadDayOccasions {
+		// common practice: load days spread the carbohydrate over more,
+		// smaller eating occasions, a late supper included.
+		occ = loadDayOccasions
+	}
 	if ov != nil {
 		if ov.ChoGPerKg != nil {
 			d.ChoGPerKg = *ov.ChoGPerKg
@@ -232,8 +240,8 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	if fixedCho > d.ChoG {
 		// The protocol's feeds need more than the day's target: the day
 		// carries them all (a finding says so).
-		d.ChoG = fixedCho
-		d.ChoGPerKg = round1(d.ChoG / mass)
+		d.ChoGPerKg = ceil1(fixedCho / mass)
+		d.ChoG = math.Round(d.ChoGPerKg * mass)
 	}
 	sess := p.sessionsOn(d.Date)
 	var exKcal float64
@@ -277,20 +285,20 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	}
 	restCho := d.ChoG - fixedCho
 	restProt := math.Max(0, d.ProteinG-fixedProt)
-	if nw == 0 && restCho > 0 {
+	if nw == 0 && (restCho > 0 || restProt > 0) {
 		// Nowhere to put the rest: add it to the last fixed feed that is not
 		// in-event fuelling, or make a meal of it.
 		placed := false
 		for i := len(feeds) - 1; i >= 0; i-- {
 			if feeds[i].Label != labelDuring {
-				feeds[i].ChoG += restCho
+				feeds[i].ChoG += math.Max(0, restCho)
 				feeds[i].ProteinG += restProt
 				placed = true
 				break
 			}
 		}
 		if !placed {
-			feeds = append(feeds, Feed{At: clockOn(dp.date, 12*60+30), Label: "lunch", ChoG: restCho, ProteinG: restProt})
+			feeds = append(feeds, Feed{At: clockOn(dp.date, 12*60+30), Label: "lunch", ChoG: math.Max(0, restCho), ProteinG: restProt})
 		}
 	} else if nw > 0 {
 		var out [16]float64
@@ -325,6 +333,9 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	}
 	return d
 }
+
+// ceil1 rounds up to one decimal (tolerating float noise).
+func ceil1(x float64) float64 { return math.Ceil(x*10-1e-9) / 10 }
 
 func blockedAt(ws []window, t time.Time) bool {
 	for _, w := range ws {
@@ -393,8 +404,23 @@ func (p *planner) applyFeedOverrides(d *Day, dp *dayPlan, fixed []bool) {
 			}
 		}
 		if d.ChoG != fixedSum {
-			d.ChoG = fixedSum
-			d.ChoGPerKg = round1(d.ChoG / p.body.MassKg)
+			// The day grows to carry the overridden feeds; its g/kg is
+			// rounded up and the few grams of rounding go to a feed that
+			// is not overridden, when there is one.
+			d.ChoGPerKg = ceil1(fixedSum / p.body.MassKg)
+			d.ChoG = math.Round(d.ChoGPerKg * p.body.MassKg)
+			extra := d.ChoG - fixedSum
+			placed := false
+			for i := range d.Feeds {
+				if !d.Feeds[i].Overridden && d.Feeds[i].Label != labelDuring {
+					d.Feeds[i].ChoG += extra
+					placed = true
+					break
+				}
+			}
+			if !placed {
+				d.ChoG = fixedSum
+			}
 			d.Overridden = true
 			macros(d, p.body.MassKg, p.body.FFMKg, *d.ExerciseEnergyKcal, dp.loadDay)
 		}

@@ -130,16 +130,17 @@ var Guidelines = []Guideline{
 	{"model.typical-density", "starting muscle glycogen density when nothing else is known (middle of the typical band)", 100, 100, "mmol/kg wet muscle", SrcModel},
 	{"model.capacity-density", "asymptote of muscle glycogen density the synthesis model approaches (loaded band's '200+')", 220, 220, "mmol/kg wet muscle", SrcModel},
 	{"model.liver-per-kg", "liver glycogen capacity per kg body mass (gives 112 g at 70 kg, inside 100–120 g)", 1.6, 1.6, "g/kg", SrcModel},
-	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 2 h time constant, at most 90 g/h", 90, 2.0, "g/h; h", SrcModel},
-	{"model.window-boost", "post-exercise boost of the synthesis rate, decaying with a 1.3 h time constant (chosen so a 2 h delay roughly halves the early rate)", 1.2, 1.3, "×; h", SrcModel},
+	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 3 h time constant (mixed meals), at most 90 g/h", 90, 3.0, "g/h; h", SrcModel},
+	{"model.window-boost", "post-exercise boost of the synthesis rate (rested rate a third of the peak, the rest decaying with a 1 h time constant), chosen so that feeding 2 h late roughly halves synthesis over the first 2 h of feeding", 2, 1.0, "×; h", SrcModel},
 	{"model.working.swim", "working muscle share of skeletal muscle, swimming", 0.70, 0.70, "share", SrcModel},
 	{"model.working.row", "working muscle share of skeletal muscle, rowing and cross-country skiing", 0.85, 0.85, "share", SrcModel},
 	{"model.working.triathlon", "working muscle share of skeletal muscle, triathlon", 0.75, 0.75, "share", SrcModel},
 	{"model.other-muscle-rate", "synthesis in muscle that did not exercise, as a share of the working muscle's rested rate (supercompensation is local to exercised muscle)", 0.25, 0.25, "share", SrcModel},
+	{"model.liver-glycogenolysis", "share of fasting glucose output from liver glycogen (the rest from gluconeogenesis): the liver gives up half its capacity per 10 h of fasting", 0.5, 0.5, "share", SrcCommon},
 	{"model.liver-share", "share of absorbed carbohydrate (after resting use) the liver takes first", 0.3, 0.3, "share", SrcModel},
 	{"fat.upper", "fat share of energy used at most when filling an energy target", 0.35, 0.35, "share of energy", SrcCommon},
 	{"model.rest-cho-ox", "resting and daily-living carbohydrate use at typical stores, scaled in proportion to stores / typical so intake sets the level stores settle at", 0.17, 0.17, "g/kg/h", SrcModel},
-	{"model.resynthesis-peak", "peak synthesis rate used (inside 5–8), at depleted stores just after exercise", 7.5, 7.5, "mmol/kg wet muscle/h", SrcModel},
+	{"model.resynthesis-peak", "peak synthesis rate used (top of 5–8), at depleted stores just after exercise", 8, 8, "mmol/kg wet muscle/h", SrcModel},
 	{"model.cover-easy", "share of carbohydrate use intake can cover at easy efforts (40% VO2max and below); falls to 0.35 at 67% VO2max (≈80% of maximum heart rate)", 0.6, 0.6, "share", SrcModel},
 	{"model.race-intensity", "race intensity when none is given, by duration: ≤15 min 95, ≤45 min 90, ≤90 min 85, ≤3 h 80, ≤5 h 72, ≤10 h 65, else 55", 55, 95, "% VO2max", SrcModel},
 	{"during.long-floor", "over 2.5 h, the usual practical intake is 60–90 g/h", 60, 90, "g/h", SrcCommon},
@@ -231,25 +232,26 @@ var (
 	gModelBoost    = guideline("model.window-boost")
 	gModelMuscleFr = guideline("model.run-fraction")
 
-	gWorkSwim      = guideline("model.working.swim")
-	gWorkRow       = guideline("model.working.row")
-	gWorkTri       = guideline("model.working.triathlon")
-	gRestOx        = guideline("model.rest-cho-ox")
-	gLiverShare    = guideline("model.liver-share")
-	gFatUpper      = guideline("fat.upper")
-	gOtherRate     = guideline("model.other-muscle-rate")
-	gResynthPeak   = guideline("model.resynthesis-peak")
-	gCoverEasy     = guideline("model.cover-easy")
-	gLongFloor     = guideline("during.long-floor")
-	gPreEarliest   = guideline("pre-event.earliest")
-	gLoadTwoDay    = guideline("load.target.two-day")
-	gLoadOther     = guideline("load.target.other")
-	gProteinTarget = guideline("protein.target")
-	gFatShare      = guideline("fat.share")
-	gRecoveryFeed  = guideline("recovery.feed")
-	gMarathonWall  = guideline("marathon.wall")
-	gLiver70       = guideline("liver.fed-70kg")
-	gMuscle70      = guideline("muscle.70kg")
+	gWorkSwim            = guideline("model.working.swim")
+	gWorkRow             = guideline("model.working.row")
+	gWorkTri             = guideline("model.working.triathlon")
+	gRestOx              = guideline("model.rest-cho-ox")
+	gLiverShare          = guideline("model.liver-share")
+	gLiverGlycogenolysis = guideline("model.liver-glycogenolysis")
+	gFatUpper            = guideline("fat.upper")
+	gOtherRate           = guideline("model.other-muscle-rate")
+	gResynthPeak         = guideline("model.resynthesis-peak")
+	gCoverEasy           = guideline("model.cover-easy")
+	gLongFloor           = guideline("during.long-floor")
+	gPreEarliest         = guideline("pre-event.earliest")
+	gLoadTwoDay          = guideline("load.target.two-day")
+	gLoadOther           = guideline("load.target.other")
+	gProteinTarget       = guideline("protein.target")
+	gFatShare            = guideline("fat.share")
+	gRecoveryFeed        = guideline("recovery.feed")
+	gMarathonWall        = guideline("marathon.wall")
+	gLiver70             = guideline("liver.fed-70kg")
+	gMuscle70            = guideline("muscle.70kg")
 )
 
 // metFor returns the MET table entry of a modality.

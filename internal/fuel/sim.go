@@ -10,21 +10,24 @@ import (
 //   - Three stores: glycogen of the working muscle and of the other
 //     skeletal muscle (densities in mmol glucosyl/kg wet muscle) and liver
 //     glycogen in grams, plus a gut pool of eaten carbohydrate.
-//   - The gut empties first-order with a 2 h time constant and delivers
+//   - The gut empties first-order with a 3 h time constant and delivers
 //     at most 90 g/h (model assumption).
 //   - Resting and daily-living carbohydrate use is 0.17 g/kg/h at typical
 //     stores and scales with stores/typical, so the intake sets the
-//     level stores settle at (model assumption). Absorbed carbohydrate
-//     covers it first, the liver takes 30% of the rest (model assumption),
-//     muscle synthesis what it can, the liver what is left; when fasted the liver covers up to its capacity
-//     spread over 10 h (it is the main source of blood glucose for 8–12 h
-//     after a meal, common practice); fat covers the rest.
-//   - Muscle synthesis is rate-limited: peak 7.5 mmol/kg/h (inside the
+//     level stores settle at (model assumption). The liver takes 30% of
+//     what is absorbed on first pass (model assumption), the rest covers
+//     that use first, then muscle synthesis what it can, the liver what is
+//     left. When fasted,
+//     the liver (the main source of blood glucose for 8–12 h after a meal,
+//     common practice) gives up glycogen at half of its capacity per 10 h,
+//     gluconeogenesis the other half; fat covers the rest of the use.
+//   - Muscle synthesis is rate-limited: peak 8 mmol/kg/h (the top of the
 //     5–8 of Jentjens and Jeukendrup) at depleted stores just after
-//     exercise, falling as the square root of the room left to zero as
+//     exercise, falling as the fourth root of the room left to zero as
 //     density nears 220 mmol/kg (the
 //     '200+' of the loaded band), and, for the working muscle, boosted
-//     after exercise by a factor that decays with a 1.3 h time constant so
+//     after exercise: the rested rate is a third of the peak and the rest decays
+//     with a 1 h time constant, so
 //     that waiting 2 h roughly halves the early rate (Ivy et al.). Muscle
 //     that did not exercise fills at a quarter of the rested rate. Supply
 //     beyond what muscle and liver can take is oxidised or stored as fat.
@@ -55,7 +58,7 @@ func newSimBody(b Body) simBody {
 		otherKg:         other,
 		liverCapG:       b.LiverCapG,
 		restOxGPerH:     gRestOx.Min * b.MassKg,
-		liverDrainGPerH: b.LiverCapG / ((gLiverFedHours.Min + gLiverFedHours.Max) / 2),
+		liverDrainGPerH: gLiverGlycogenolysis.Min * b.LiverCapG / ((gLiverFedHours.Min + gLiverFedHours.Max) / 2),
 		gutGPerH:        gModelGut.Min,
 	}
 }
@@ -85,7 +88,7 @@ func synthRate(d, sinceExH float64, boosted bool) float64 {
 	if g > 1 {
 		g = 1
 	}
-	g = math.Sqrt(g)
+	g = math.Sqrt(math.Sqrt(g))
 	boost, tau := gModelBoost.Min, gModelBoost.Max
 	w := 1 / (1 + boost)
 	if boosted {
@@ -128,7 +131,7 @@ type intake struct {
 // stores could not supply.
 func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short float64) {
 	s.GutG += eatGPerH * dt
-	// The gut empties first-order (2 h time constant), at most gutGPerH.
+	// The gut empties first-order (3 h time constant), at most gutGPerH.
 	a := math.Min(s.GutG*(1-math.Exp(-dt/gModelGut.Max)), b.gutGPerH*dt)
 	s.GutG -= a
 	if use > 0 {
@@ -163,15 +166,21 @@ func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short floa
 		return short
 	}
 	s.sinceExH += dt
-	// Resting and daily-living use, covered by absorbed carbohydrate, then
-	// (up to the fasting drain) by the liver.
+	// First pass: the liver takes its share of what is absorbed. Then
+	// resting and daily-living use, covered by absorbed carbohydrate and
+	// (up to the fasting drain) by the liver; then muscle synthesis
+	// (rate-limited, shared in proportion to demand); the liver takes
+	// what is left.
+	if toLiver := math.Min(gLiverShare.Min*a, b.liverCapG-s.LiverG); toLiver > 0 {
+		s.LiverG += toLiver
+		a -= toLiver
+	}
 	totalKg := b.workingKg + b.otherKg
 	mean := gModelTypical.Min
 	if totalKg > 0 {
 		mean = (s.Dw*b.workingKg + s.Do*b.otherKg) / totalKg
 	}
-	x := mean / gModelTypical.Min
-	r := b.restOxGPerH * x * dt
+	r := b.restOxGPerH * mean / gModelTypical.Min * dt
 	fromGut := math.Min(a, r)
 	a -= fromGut
 	r -= fromGut
@@ -181,13 +190,6 @@ func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short floa
 	}
 	if a <= 0 {
 		return 0
-	}
-	// The liver takes its share of the supply first, then muscle synthesis
-	// (rate-limited, shared in proportion to demand), then the liver again.
-	toLiver := math.Min(gLiverShare.Min*a, b.liverCapG-s.LiverG)
-	if toLiver > 0 {
-		s.LiverG += toLiver
-		a -= toLiver
 	}
 	k := gGlucosyl.Min * dt
 	dw := synthRate(s.Dw, s.sinceExH, true) * b.workingKg * k
