@@ -264,10 +264,8 @@ func (s *Server) createPlan(w http.ResponseWriter, r *http.Request) {
 	refuse := func() {
 		s.renderPlanStart(w, r, http.StatusUnprocessableEntity, c, events, f)
 	}
-	if f.Has() {
-		refuse()
-		return
-	}
+	// The kind's own needs are checked even when a field already failed, so
+	// that every problem shows at once.
 	pi := planInputs{client: c, form: in}
 	if in.EventID > 0 {
 		for i := range events {
@@ -294,14 +292,14 @@ func (s *Server) createPlan(w http.ResponseWriter, r *http.Request) {
 		if in.NextStart == "" {
 			f.Errors.Add("next_start", "A repletion plan needs the start of the next session.")
 		}
-		if in.TimeZone == "" {
+		if in.TimeZone == "" && f.Err("time_zone") == "" {
 			f.Errors.Add("time_zone", "A repletion plan needs the time zone the athlete is in.")
 		}
 	case fuel.KindWeek:
-		if in.StartDate == nil {
+		if in.StartDate == nil && f.Err("start_date") == "" {
 			f.Errors.Add("start_date", "A training-week plan needs its first day.")
 		}
-		if in.Days < 1 {
+		if in.Days < 1 && f.Err("days") == "" {
 			f.Errors.Add("days", "A training-week plan needs at least one day.")
 		}
 	}
@@ -422,14 +420,14 @@ func buildRequest(pi planInputs) (fuel.Request, error) {
 		loc := loadZone(in.TimeZone)
 		end, err := forms.ParseLocalDateTime(in.SessionEnd, loc)
 		if err != nil {
-			return req, fuel.ValidationError{{Field: "session_end", Message: "must be a date and time"}}
+			return req, fuel.ValidationError{{Field: "session_end", Message: "The end of the session must be a date and time like 2027-04-18 09:30."}}
 		}
 		next, err := forms.ParseLocalDateTime(in.NextStart, loc)
 		if err != nil {
-			return req, fuel.ValidationError{{Field: "next_start", Message: "must be a date and time"}}
+			return req, fuel.ValidationError{{Field: "next_start", Message: "The next start must be a date and time like 2027-04-18 15:30."}}
 		}
 		if !next.After(end) {
-			return req, fuel.ValidationError{{Field: "next_start", Message: "must be after the end of the session"}}
+			return req, fuel.ValidationError{{Field: "next_start", Message: "The next session must start after the end of this one."}}
 		}
 		req.SessionEnd, req.NextStart, req.TimeZone = &end, &next, in.TimeZone
 	}
@@ -586,6 +584,9 @@ func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, 
 	pv := s.planView(c, p, v, versions, MenuFoods(foods))
 	pv.Form = f
 	pv.Notice = notice
+	if !pv.Editable && notice != "" {
+		pv.Carry = carriedValues(f)
+	}
 	s.Render(w, r, status, p.Title, "clients", web.PlanPage(pv))
 }
 
@@ -772,7 +773,7 @@ func (s *Server) editPlanVersion(w http.ResponseWriter, r *http.Request) {
 	req, f := decodeOverrides(values, v.Request)
 	if v.Status != store.PlanDraft {
 		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, f,
-			"This version is "+v.Status+" and can no longer change. Your values are shown below; start a new version to apply them.")
+			"Not saved: this version is "+v.Status+" and can no longer change. Your values are listed here; start a new version to apply them.")
 		return
 	}
 	if f.Has() {
@@ -819,6 +820,40 @@ func (s *Server) editPlanVersion(w http.ResponseWriter, r *http.Request) {
 		s.Flash(r, "Draft saved and checked again.")
 	}
 	Redirect(w, r, web.Path("clients", c.ID, "plans", p.ID, "versions", saved.Version))
+}
+
+// carriedValues lists the override values a person typed, in words, for a
+// version that can no longer take them.
+func carriedValues(f forms.Form) []web.Carried {
+	names := make([]string, 0, len(f.Values))
+	for name := range overrideInputs(f.Values) {
+		if strings.TrimSpace(f.Values.Get(name)) != "" {
+			names = append(names, name)
+		}
+	}
+	sort.Strings(names)
+	var out []web.Carried
+	for _, name := range names {
+		label := name
+		switch {
+		case name == duringName:
+			label = "In-event carbohydrate (g/h)"
+		case strings.HasPrefix(name, "gkg_"):
+			label = "Carbohydrate on " + dayWords(strings.TrimPrefix(name, "gkg_")) + " (g/kg)"
+		case strings.HasPrefix(name, "occ_"):
+			label = "Eating occasions on " + dayWords(strings.TrimPrefix(name, "occ_"))
+		case strings.HasPrefix(name, "feedcho_"), strings.HasPrefix(name, "feedat_"):
+			if date, i, ok := feedKey(name[strings.Index(name, "_")+1:]); ok {
+				what := "Carbohydrate (g)"
+				if strings.HasPrefix(name, "feedat_") {
+					what = "Time"
+				}
+				label = fmt.Sprintf("%s of feed %d on %s", what, i+1, dayWords(date))
+			}
+		}
+		out = append(out, web.Carried{Name: name, Label: label, Value: f.Values.Get(name)})
+	}
+	return out
 }
 
 // overrideInputs keeps only the override inputs of a posted form.
@@ -878,7 +913,7 @@ func (s *Server) conflict(w http.ResponseWriter, r *http.Request, c store.Client
 	when := latest.UpdatedAt.In(loadZone(latest.Result.TimeZone)).Format("15:04 on Mon 2 Jan")
 	msg := fmt.Sprintf("Not saved: %s saved this draft at %s, after you opened it. The figures below are theirs; your own values are still in the boxes. Check them against the new figures and save again.", who, when)
 	if errors.Is(cause, store.ErrNotDraft) {
-		msg = fmt.Sprintf("Not saved: this version was published meanwhile (by %s at %s). Your values are still in the boxes; start a new version to apply them.", who, when)
+		msg = fmt.Sprintf("Not saved: this version was published meanwhile (by %s at %s). Your values are listed here; start a new version to apply them.", who, when)
 	}
 	s.renderPlan(w, r, http.StatusConflict, c, p, latest, versions, f, msg)
 }
@@ -898,10 +933,41 @@ func (s *Server) revisePlan(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	if v.Version == pub.Version+1 && v.Revision == 1 {
-		s.Flash(r, "Version "+strconv.Itoa(v.Version)+" started as a draft copy of version "+strconv.Itoa(pub.Version)+".")
-	} else {
-		s.Flash(r, "This plan already has a draft (version "+strconv.Itoa(v.Version)+"); it is opened instead.")
+	msg := "Version " + strconv.Itoa(v.Version) + " started as a draft copy of version " + strconv.Itoa(pub.Version) + "."
+	if v.Version != pub.Version+1 || v.Revision != 1 {
+		msg = "This plan already has a draft (version " + strconv.Itoa(v.Version) + "); it is opened instead."
 	}
+	// Values carried over from a refused edit of a published version are
+	// applied to the new draft, so that nothing typed is lost.
+	if values := overrideInputs(r.PostForm); len(values) > 0 {
+		req, f := decodeOverrides(values, v.Request)
+		plan, cerr := fuel.Compute(req)
+		if f.Has() || cerr != nil {
+			versions, err := s.Store.PlanVersions(r.Context(), p.ID)
+			if err != nil {
+				s.ServerError(w, r, err)
+				return
+			}
+			s.renderPlan(w, r, http.StatusUnprocessableEntity, c, p, v, versions, f, msg+" Your values were not applied: correct the boxes marked below and save.")
+			return
+		}
+		foods, err := s.Store.ListFoods(r.Context(), false)
+		if err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
+		content := store.PlanContent{Request: req, Result: plan, BodyMassKg: v.BodyMassKg, BodyMassOn: v.BodyMassOn,
+			Suggestions: suggestionTexts(plan, MenuFoods(foods))}
+		if _, err := s.Store.SaveDraft(r.Context(), Actor(r), v.ID, v.Revision, content); err != nil {
+			if errors.Is(err, store.ErrStaleRevision) || errors.Is(err, store.ErrNotDraft) {
+				s.conflict(w, r, c, p, v, f, err)
+				return
+			}
+			s.ServerError(w, r, err)
+			return
+		}
+		msg += " Your values were applied and checked."
+	}
+	s.Flash(r, msg)
 	Redirect(w, r, web.Path("clients", c.ID, "plans", p.ID, "versions", v.Version))
 }

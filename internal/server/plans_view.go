@@ -305,7 +305,8 @@ func suggestFor(plan fuel.Plan, foods []menu.Food) map[string]string {
 	for _, d := range plan.Days {
 		needs := make([]menu.Need, len(d.Feeds))
 		for i, f := range d.Feeds {
-			needs[i] = menu.Need{ChoG: f.ChoG, LowFibre: d.LowFibre}
+			// The in-event share of the event day is eaten on the move.
+			needs[i] = menu.Need{ChoG: f.ChoG, LowFibre: d.LowFibre, OnTheMove: strings.Contains(f.Label, "during")}
 		}
 		sugg, ok := menu.SuggestDay(foods, needs)
 		for i := range needs {
