@@ -278,6 +278,19 @@ func TestHealthz(t *testing.T) {
 	}
 }
 
+func TestSecurityHeaders(t *testing.T) {
+	a := newApp(t)
+	resp, err := http.Get(a.srv.URL + "/signin")
+	if err != nil {
+		t.Fatal(err)
+	}
+	resp.Body.Close()
+	if resp.Header.Get("X-Frame-Options") != "DENY" || resp.Header.Get("X-Content-Type-Options") != "nosniff" ||
+		!strings.Contains(resp.Header.Get("Content-Security-Policy"), "frame-ancestors 'none'") {
+		t.Fatalf("headers %v", resp.Header)
+	}
+}
+
 func TestChangeOwnPassword(t *testing.T) {
 	a := newApp(t)
 	b, u := a.signedIn(store.RoleDietitian)
