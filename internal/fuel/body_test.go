@@ -163,7 +163,7 @@ func TestMarathonWall(t *testing.T) {
 	// no intake.
 	b := NewBody(Athlete{Sex: "male", BodyMassKg: 70}, "run")
 	sb := newSimBody(b)
-	s := simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: b.LiverCapG, sinceExH: 24}
+	s := simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: b.LiverCapG}.since(24)
 	durH := 3.5
 	kcal, _ := EventEnergy(b, Event{Modality: "run", DistanceKm: ptr(42.195), ExpectedDurationMin: durH * 60}, 75)
 	use := kcal / durH * ChoShare(75) / gAtwaterCho.Min

@@ -61,6 +61,7 @@ type planner struct {
 	evDayDate string
 
 	feedOvState  []string // per feed override: feedOvApplied, or why it was not
+	buf          []byte   // message buffer of find
 	startDensity float64  // working-muscle glycogen at the start line, mmol/kg
 	repWinH      float64  // speedy refuelling window, hours
 }
@@ -778,7 +779,7 @@ func (p *planner) week() {
 // startState is the assumed state at the start of a simulation: typical
 // muscle glycogen density, liver half full after a night.
 func (p *planner) startState() simState {
-	return simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: 0.5 * p.sb.liverCapG, sinceExH: 24}
+	return simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: 0.5 * p.sb.liverCapG}.since(24)
 }
 
 // exercises lists the training sessions in [from, to) as simulation bouts.
@@ -1055,7 +1056,7 @@ func (p *planner) repletion() {
 	// session, in which case the simulation runs it from the day's start.
 	s := p.startState()
 	s.Dw = gDepleted.Max
-	s.sinceExH = 0
+	s = s.since(0)
 	from, to := end.Unix(), next.Unix()
 	in := p.intakes(p.plan.Days, to)
 	curve := make([]GlycogenPoint, 0, (to-from)/900+2)

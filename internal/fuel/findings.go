@@ -1,18 +1,74 @@
 package fuel
 
 import (
-	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"time"
 )
 
-// find records a finding.
+// find records a finding. The message is formatted by appendf into a
+// buffer reused across findings, so each finding costs one string.
 func (p *planner) find(code, level, subject, source, format string, args ...any) {
+	p.buf = appendf(p.buf[:0], format, args...)
 	p.plan.Findings = append(p.plan.Findings, Finding{
 		Code: code, Level: level, Subject: subject, Source: source,
-		Message: fmt.Sprintf(format, args...),
+		Message: string(p.buf),
 	})
+}
+
+// appendf is the small subset of fmt the messages use: %g (float64 or
+// int), %s, %d, %.0f, %.1f and %%. Unlike fmt it does not make its
+// arguments escape, which keeps a plan's findings cheap to build.
+func appendf(b []byte, format string, args ...any) []byte {
+	ai := 0
+	next := func() any {
+		if ai < len(args) {
+			ai++
+			return args[ai-1]
+		}
+		return "?"
+	}
+	for i := 0; i < len(format); i++ {
+		c := format[i]
+		if c != '%' || i+1 == len(format) {
+			b = append(b, c)
+			continue
+		}
+		i++
+		prec := -1
+		if format[i] == '.' && i+2 < len(format) {
+			prec = int(format[i+1] - '0')
+			i += 2
+		}
+		switch format[i] {
+		case '%':
+			b = append(b, '%')
+		case 's':
+			switch v := next().(type) {
+			case string:
+				b = append(b, v...)
+			default:
+				b = append(b, '?')
+			}
+		case 'd', 'g', 'f':
+			switch v := next().(type) {
+			case int:
+				b = strconv.AppendInt(b, int64(v), 10)
+			case float64:
+				if format[i] == 'f' && prec >= 0 {
+					b = strconv.AppendFloat(b, v, 'f', prec, 64)
+				} else {
+					b = strconv.AppendFloat(b, v, 'g', -1, 64)
+				}
+			default:
+				b = append(b, '?')
+			}
+		default:
+			b = append(b, '%', format[i])
+		}
+	}
+	return b
 }
 
 // inRange reports lo ≤ v ≤ hi with a little slack for rounding.
@@ -109,27 +165,41 @@ func (p *planner) preMealOverridden() bool {
 	return false
 }
 
+// rangeCode is the finding code of a day's carbohydrate check.
+func rangeCode(role string) string {
+	switch role {
+	case RoleLoad:
+		return "load-day-range"
+	case RoleTaper:
+		return "taper-day-range"
+	case RoleEvent:
+		return "event-day-range"
+	case RoleRecovery:
+		return "recovery-day-range"
+	case RoleRepletion:
+		return "repletion-day-range"
+	}
+	return "training-day-range"
+}
+
 func (p *planner) checkDay(d *Day) {
 	mass := p.body.MassKg
 	subj := "day:" + d.Date
-	code, src, what := d.Role+"-day-range", SrcBands, "the "+d.LoadBand+" training-load band"
-	if d.Role == RoleLoad {
-		code, src, what = "load-day-range", SrcACSM, "the carbohydrate-loading range"
-	}
+	code, src, what, band := rangeCode(d.Role), SrcBands, "the %s training-load band", d.LoadBand
 	unit := "g/kg/day"
 	if d.Role == RoleLoad {
-		unit = "g/kg per 24 h"
+		src, what, band, unit = SrcACSM, "the carbohydrate-loading range%s", "", "g/kg per 24 h"
 	}
 	switch {
 	case inRange(d.ChoGPerKg, d.BandMinGPerKg, d.BandMaxGPerKg):
-		p.find(code, LevelOK, subj, src, "Carbohydrate %g g/kg (%g g)%s is inside %s of %g–%g %s.",
-			d.ChoGPerKg, d.ChoG, overrideWord(d.Overridden), what, d.BandMinGPerKg, d.BandMaxGPerKg, unit)
+		p.find(code, LevelOK, subj, src, "Carbohydrate %g g/kg (%g g)%s is inside "+what+" of %g–%g %s.",
+			d.ChoGPerKg, d.ChoG, overrideWord(d.Overridden), band, d.BandMinGPerKg, d.BandMaxGPerKg, unit)
 	case d.Overridden:
-		p.find(code, LevelOutside, subj, src, "Carbohydrate %g g/kg (%g g) is a dietitian's override outside %s of %g–%g %s.",
-			d.ChoGPerKg, d.ChoG, what, d.BandMinGPerKg, d.BandMaxGPerKg, unit)
+		p.find(code, LevelOutside, subj, src, "Carbohydrate %g g/kg (%g g) is a dietitian's override outside "+what+" of %g–%g %s.",
+			d.ChoGPerKg, d.ChoG, band, d.BandMinGPerKg, d.BandMaxGPerKg, unit)
 	default:
-		p.find(code, LevelOutside, subj, src, "Carbohydrate %g g/kg (%g g) is outside %s of %g–%g %s, because the pre-event meal and in-event fuelling alone need that much.",
-			d.ChoGPerKg, d.ChoG, what, d.BandMinGPerKg, d.BandMaxGPerKg, unit)
+		p.find(code, LevelOutside, subj, src, "Carbohydrate %g g/kg (%g g) is outside "+what+" of %g–%g %s, because the pre-event meal and in-event fuelling alone need that much.",
+			d.ChoGPerKg, d.ChoG, band, d.BandMinGPerKg, d.BandMaxGPerKg, unit)
 	}
 	if d.Role == RoleLoad && p.body.Sex == "female" {
 		perFFM := 0.0
@@ -181,16 +251,16 @@ func (p *planner) checkDay(d *Day) {
 	// Feeds: overrides, protein at main meals, long gaps.
 	var prevAt time.Time
 	for i, f := range d.Feeds {
-		fs := fmt.Sprintf("feed:%s:%d", d.Date, i)
+		fs := func() string { return "feed:" + d.Date + ":" + strconv.Itoa(i) }
 		if f.Overridden {
-			p.find("feed-override", LevelNote, fs, SrcCommon,
+			p.find("feed-override", LevelNote, fs(), SrcCommon,
 				"Feed %d (%s at %s) is a dietitian's override: %g g carbohydrate; the other feeds share the rest of the day's %g g.",
 				i, f.Label, f.At.Format("15:04"), f.ChoG, d.ChoG)
 		}
 		switch f.Label {
 		case "breakfast", "lunch", "dinner", labelRecovery:
 			if f.ProteinG < math.Floor(gProteinMeal.Min*mass*0.8) {
-				p.find("protein-meal", LevelNote, fs, SrcACSM,
+				p.find("protein-meal", LevelNote, fs(), SrcACSM,
 					"The %s at %s has %g g protein, under about %g g/kg (%g g) per meal.",
 					f.Label, f.At.Format("15:04"), f.ProteinG, gProteinMeal.Min, math.Round(gProteinMeal.Min*mass))
 			}
@@ -202,7 +272,7 @@ func (p *planner) checkDay(d *Day) {
 		if !prevAt.IsZero() {
 			gap := f.At.Sub(prevAt).Hours()
 			if gap > 5 {
-				p.find("feed-gap", LevelNote, fs, SrcACSM,
+				p.find("feed-gap", LevelNote, fs(), SrcACSM,
 					"%.1f h pass without food before the %s at %s; protein and carbohydrate are best spread every 3–5 h.",
 					gap, f.Label, f.At.Format("15:04"))
 			}
@@ -272,9 +342,9 @@ func (p *planner) checkGlycogen(g *Glycogen) {
 	}
 	where := func(min, km *float64) string {
 		if km != nil {
-			return fmt.Sprintf("about %g km (%g min)", *km, *min)
+			return string(appendf(nil, "about %g km (%g min)", *km, *min))
 		}
-		return fmt.Sprintf("about %g min", *min)
+		return string(appendf(nil, "about %g min", *min))
 	}
 	rate := 0.0
 	if p.plan.DuringEvent != nil {

@@ -109,6 +109,9 @@ func checkPlanInvariants(t *testing.T, req Request, p Plan) {
 		if f.Code == "" || f.Message == "" || !levels[f.Level] || !allowedSources[f.Source] {
 			t.Errorf("incomplete finding %+v", f)
 		}
+		if strings.Contains(f.Message, "?") || strings.Contains(f.Message, "%") && !strings.Contains(f.Message, "% ") && !strings.Contains(f.Message, "%)") && !strings.Contains(f.Message, "%.") && !strings.Contains(f.Message, "%,") {
+			t.Errorf("finding %s: badly formatted message %q", f.Code, f.Message)
+		}
 		if !validSubject(f.Subject) {
 			t.Errorf("finding %s: subject %q", f.Code, f.Subject)
 		}
@@ -392,7 +395,7 @@ func TestRepletionDelayHalvesEarlyRate(t *testing.T) {
 	b := NewBody(Athlete{Sex: "male", BodyMassKg: 80}, "run")
 	sb := newSimBody(b)
 	gain := func(sinceEx float64) float64 {
-		s := simState{Dw: 40, Do: 100, LiverG: sb.liverCapG, GutG: 0, sinceExH: sinceEx}
+		s := simState{Dw: 40, Do: 100, LiverG: sb.liverCapG}.since(sinceEx)
 		from := int64(1_800_000_000)
 		in := []intake{{at: from, g: 300}}
 		end := sb.simulate(s, from, from+2*3600, nil, in, nil, 3600, time.UTC)

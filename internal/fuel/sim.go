@@ -46,6 +46,9 @@ type simBody struct {
 	restOxGPerH        float64 // at typical stores
 	liverDrainGPerH    float64
 	gutGPerH           float64
+
+	// per-step constants of the last dt (the simulation uses few step sizes)
+	stepDt, gutFrac, boostDecay float64
 }
 
 func newSimBody(b Body) simBody {
@@ -68,8 +71,18 @@ type simState struct {
 	Dw, Do float64 // working and other muscle glycogen, mmol/kg wet muscle
 	LiverG float64
 	GutG   float64
-	// sinceExH is the time since the working muscle last exercised, hours.
-	sinceExH float64
+	// sinceExH is the time since the working muscle last exercised, hours;
+	// boostLeft is exp(−sinceExH/τ) of the post-exercise window, kept
+	// step by step.
+	sinceExH  float64
+	boostLeft float64
+}
+
+// since sets the time since the working muscle last exercised.
+func (s simState) since(h float64) simState {
+	s.sinceExH = h
+	s.boostLeft = math.Exp(-h / gModelBoost.Max)
+	return s
 }
 
 func (b simBody) muscleG(s simState) float64 {
@@ -78,8 +91,10 @@ func (b simBody) muscleG(s simState) float64 {
 
 func (b simBody) workingG(s simState) float64 { return GlycogenG(s.Dw, b.workingKg) }
 
-// synthRate is the muscle synthesis ceiling in mmol/kg/h at density d.
-func synthRate(d, sinceExH float64, boosted bool) float64 {
+// synthRate is the muscle synthesis ceiling in mmol/kg/h at density d;
+// boostLeft is what remains of the post-exercise window (1 just after
+// exercise, falling to 0).
+func synthRate(d, boostLeft float64) float64 {
 	capD, lowD := gModelCapacity.Min, gDepleted.Min
 	g := (capD - d) / (capD - lowD)
 	if g <= 0 {
@@ -89,12 +104,8 @@ func synthRate(d, sinceExH float64, boosted bool) float64 {
 		g = 1
 	}
 	g = math.Sqrt(math.Sqrt(g))
-	boost, tau := gModelBoost.Min, gModelBoost.Max
-	w := 1 / (1 + boost)
-	if boosted {
-		w = (1 + boost*math.Exp(-sinceExH/tau)) / (1 + boost)
-	}
-	return gResynthPeak.Min * g * w
+	boost := gModelBoost.Min
+	return gResynthPeak.Min * g * (1 + boost*boostLeft) / (1 + boost)
 }
 
 // coverShare is the share of carbohydrate use that eaten carbohydrate can
@@ -129,14 +140,19 @@ type intake struct {
 // step advances the state by dt hours. use is the carbohydrate use of
 // exercise in g/h (0 at rest). It returns the grams of carbohydrate the
 // stores could not supply.
-func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short float64) {
+func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short float64) {
+	if dt != b.stepDt {
+		b.stepDt = dt
+		b.gutFrac = 1 - math.Exp(-dt/gModelGut.Max)
+		b.boostDecay = math.Exp(-dt / gModelBoost.Max)
+	}
 	s.GutG += eatGPerH * dt
 	// The gut empties first-order (3 h time constant), at most gutGPerH.
-	a := math.Min(s.GutG*(1-math.Exp(-dt/gModelGut.Max)), b.gutGPerH*dt)
+	a := min(s.GutG*b.gutFrac, b.gutGPerH*dt)
 	s.GutG -= a
 	if use > 0 {
 		c := use * dt
-		exo := math.Min(a, cover*c)
+		exo := min(a, cover*c)
 		a -= exo
 		e := c - exo
 		wG := GlycogenG(s.Dw, b.workingKg)
@@ -149,7 +165,7 @@ func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short floa
 		if fromL > s.LiverG {
 			extra := fromL - s.LiverG
 			fromL = s.LiverG
-			take := math.Min(extra, wG-fromM)
+			take := min(extra, wG-fromM)
 			fromM += take
 			short = extra - take
 		}
@@ -161,17 +177,19 @@ func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short floa
 			}
 		}
 		s.sinceExH = 0
+		s.boostLeft = 1
 		// Left-over absorbed carbohydrate tops up the liver.
-		s.LiverG = math.Min(b.liverCapG, s.LiverG+a)
+		s.LiverG = min(b.liverCapG, s.LiverG+a)
 		return short
 	}
 	s.sinceExH += dt
+	s.boostLeft *= b.boostDecay
 	// First pass: the liver takes its share of what is absorbed. Then
 	// resting and daily-living use, covered by absorbed carbohydrate and
 	// (up to the fasting drain) by the liver; then muscle synthesis
 	// (rate-limited, shared in proportion to demand); the liver takes
 	// what is left.
-	if toLiver := math.Min(gLiverShare.Min*a, b.liverCapG-s.LiverG); toLiver > 0 {
+	if toLiver := min(gLiverShare.Min*a, b.liverCapG-s.LiverG); toLiver > 0 {
 		s.LiverG += toLiver
 		a -= toLiver
 	}
@@ -181,19 +199,19 @@ func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short floa
 		mean = (s.Dw*b.workingKg + s.Do*b.otherKg) / totalKg
 	}
 	r := b.restOxGPerH * mean / gModelTypical.Min * dt
-	fromGut := math.Min(a, r)
+	fromGut := min(a, r)
 	a -= fromGut
 	r -= fromGut
 	if r > 0 {
-		d := math.Min(math.Min(r, b.liverDrainGPerH*dt), s.LiverG)
+		d := min(min(r, b.liverDrainGPerH*dt), s.LiverG)
 		s.LiverG -= d
 	}
 	if a <= 0 {
 		return 0
 	}
 	k := gGlucosyl.Min * dt
-	dw := synthRate(s.Dw, s.sinceExH, true) * b.workingKg * k
-	do := gOtherRate.Min * synthRate(s.Do, 0, false) * b.otherKg * k
+	dw := synthRate(s.Dw, s.boostLeft) * b.workingKg * k
+	do := gOtherRate.Min * synthRate(s.Do, 0) * b.otherKg * k
 	if need := dw + do; need > a {
 		f := a / need
 		dw, do = dw*f, do*f
@@ -205,7 +223,7 @@ func (b simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short floa
 		s.Do += do / (b.otherKg * gGlucosyl.Min)
 	}
 	a -= dw + do
-	s.LiverG = math.Min(b.liverCapG, s.LiverG+a)
+	s.LiverG = min(b.liverCapG, s.LiverG+a)
 	return 0
 }
 
@@ -215,7 +233,7 @@ const simStep = 5 * time.Minute
 // steps over the bouts and intakes (both sorted by time). When curve is not
 // nil it gets a point at every multiple of sampleS seconds (the caller adds
 // the final point). Bouts record when the stores ran out in them.
-func (b simBody) simulate(s simState, from, to int64, ex []exercise, in []intake, curve *[]GlycogenPoint, sampleS int64, loc *time.Location) simState {
+func (b *simBody) simulate(s simState, from, to int64, ex []exercise, in []intake, curve *[]GlycogenPoint, sampleS int64, loc *time.Location) simState {
 	const dtS = int64(simStep / time.Second)
 	ii, ei := 0, 0
 	for i := range ex {
@@ -260,7 +278,7 @@ func (b simBody) point(s simState, t int64, loc *time.Location) GlycogenPoint {
 // race runs the stores through an event in 1-minute steps at a constant
 // carbohydrate use and intake, and returns when they ran out (hours, −1 if
 // they lasted) and the state at the finish.
-func (b simBody) race(s simState, durH, useGPerH, cover, eatGPerH float64) (runsOutH float64, end simState) {
+func (b *simBody) race(s simState, durH, useGPerH, cover, eatGPerH float64) (runsOutH float64, end simState) {
 	const dt = 1.0 / 60
 	runsOutH = -1
 	steps := int(math.Ceil(durH / dt))
