@@ -64,6 +64,8 @@ func TestValidationMessages(t *testing.T) {
 		{"unit", base + "/body-mass", "body_mass", merge(massOK, "unit", "stone"), "unit", "Choose kg or lb.", ""},
 		{"measurement date two days ahead", base + "/body-mass", "body_mass", merge(massOK, "measured_on", "2027-03-03"), "measured_on",
 			"Measurement date cannot be more than one day after today (Mon 1 Mar 2027).", `value="2027-03-03"`},
+		{"measurement date before 1900", base + "/body-mass", "body_mass", merge(massOK, "measured_on", "1899-12-31"), "measured_on",
+			"Measurement date must be after 1900.", ""},
 		{"measurement date required", base + "/body-mass", "body_mass", merge(massOK, "measured_on", ""), "measured_on", "Measurement date is required.", ""},
 		{"body fat low", base + "/body-mass", "body_mass", merge(massOK, "body_fat_pct", "1.5"), "body_fat_pct", "Body fat must be between 2 and 60 %.", ""},
 		{"body fat high", base + "/body-mass", "body_mass", merge(massOK, "body_fat_pct", "61"), "body_fat_pct", "Body fat must be between 2 and 60 %.", ""},
@@ -89,6 +91,8 @@ func TestValidationMessages(t *testing.T) {
 		{"modality", base + "/training", "training_sessions", merge(trainingOK, "modality", "jousting"), "modality", "Choose an activity from the list.", ""},
 		{"done in the future", base + "/training", "training_sessions", merge(trainingOK, "on_date", "2027-03-10"), "status",
 			"A session more than a day ahead cannot be done yet; mark it planned.", ""},
+		{"training date far", base + "/training", "training_sessions", merge(trainingOK, "on_date", "2029-01-01", "status", "planned"), "on_date",
+			"Date must be within five years before and one year after today.", ""},
 		{"training distance", base + "/training", "training_sessions", merge(trainingOK, "distance_km", "0"), "distance_km",
 			"Distance must be more than 0 and at most 1000 km.", ""},
 
