@@ -20,6 +20,7 @@ func (s *Server) routes() http.Handler {
 	static, _ := fs.Sub(web.Static, "static")
 	r.Handle("/static/*", http.StripPrefix("/static/", http.FileServerFS(static)))
 	r.Get("/healthz", s.healthz)
+	r.Head("/healthz", s.healthz)
 	r.NotFound(s.Sessions.LoadAndSave(s.loadUser(http.HandlerFunc(s.NotFound))).ServeHTTP)
 
 	r.Group(func(r chi.Router) {
