@@ -466,3 +466,24 @@ func FuzzDecodeOverrides(f *testing.F) {
 		}
 	})
 }
+
+func TestDemoHasPublishedPlanOfEachKind(t *testing.T) {
+	a := newApp(t)
+	loadDemo(t, a)
+	before := a.count(`SELECT count(*) FROM plans`)
+	loadDemo(t, a) // a second load adds nothing
+	if after := a.count(`SELECT count(*) FROM plans`); after != before {
+		t.Fatalf("second demo load added %d plans", after-before)
+	}
+	b, _ := a.signedIn(store.RoleDietitian)
+	for _, kind := range []string{fuel.KindLoading, fuel.KindRace, fuel.KindRepletion, fuel.KindWeek} {
+		var clientID, planID int64
+		err := a.st.Pool.QueryRow(context.Background(), `SELECT p.client_id, p.id FROM plans p JOIN plan_versions v ON v.plan_id = p.id
+			WHERE p.kind = $1 AND v.status = 'published' AND p.created_by IS NULL ORDER BY p.id LIMIT 1`, kind).Scan(&clientID, &planID)
+		if err != nil {
+			t.Errorf("no published demo plan of kind %s: %v", kind, err)
+			continue
+		}
+		b.get("/clients/"+itoa64(clientID)+"/plans/"+itoa64(planID)).mustContain(t, `<span class="status published">published</span>`, "not medical advice")
+	}
+}

@@ -299,49 +299,10 @@ func intensityWords(x string) string {
 }
 
 // suggestFor makes the food suggestions of a plan's feeds, by store.FeedKey.
-func suggestFor(plan fuel.Plan, foods []menu.Food) map[string]string {
-	out := map[string]string{}
-	loc := loadZone(plan.TimeZone)
-	for _, d := range plan.Days {
-		needs := make([]menu.Need, len(d.Feeds))
-		for i, f := range d.Feeds {
-			// The in-event share of the event day is eaten on the move.
-			needs[i] = menu.Need{ChoG: f.ChoG, LowFibre: d.LowFibre, OnTheMove: strings.Contains(f.Label, "during")}
-		}
-		sugg, ok := menu.SuggestDay(foods, needs)
-		for i := range needs {
-			switch {
-			case ok[i]:
-				out[store.FeedKey("day", d.Date, i)] = sugg[i].Text()
-			case needs[i].ChoG > 0:
-				out[store.FeedKey("day", d.Date, i)] = "No combination of 1–3 foods on the list fits."
-			}
-		}
-	}
-	if m := plan.PreEventMeal; m != nil {
-		if sg, ok := menu.Suggest(foods, menu.Need{ChoG: m.ChoG, LowFibre: true}); ok {
-			out[store.FeedKey("pre_event", m.At.In(loc).Format(time.DateOnly), 0)] = sg.Text()
-		}
-	}
-	if rp := plan.Repletion; rp != nil {
-		var prev []int64
-		for i, f := range rp.Feeds {
-			if sg, ok := menu.Suggest(foods, menu.Need{ChoG: f.ChoG, Avoid: prev}); ok {
-				out[store.FeedKey("repletion", f.At.In(loc).Format(time.DateOnly), i)] = sg.Text()
-				prev = prev[:0]
-				for _, it := range sg.Items {
-					prev = append(prev, it.Food.ID)
-				}
-			}
-		}
-	}
-	return out
-}
+func suggestFor(plan fuel.Plan, foods []menu.Food) map[string]string { return menu.PlanSuggestions(plan, foods) }
 
 // suggestionTexts is what a save stores with the feeds.
-func suggestionTexts(plan fuel.Plan, foods []menu.Food) map[string]string {
-	return suggestFor(plan, foods)
-}
+func suggestionTexts(plan fuel.Plan, foods []menu.Food) map[string]string { return menu.PlanSuggestions(plan, foods) }
 
 // ----- client page hooks -----
 

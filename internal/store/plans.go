@@ -10,6 +10,7 @@ import (
 	"github.com/jackc/pgx/v5"
 
 	"larder/internal/fuel"
+	"larder/internal/menu"
 )
 
 // Plan statuses of a version.
@@ -64,7 +65,7 @@ type PlanContent struct {
 // FeedKey names one feed of a plan for Suggestions: kind is "day",
 // "pre_event" or "repletion"; index is 0-based within the day (or the
 // repletion window).
-func FeedKey(kind, date string, index int) string { return fmt.Sprintf("%s:%s:%d", kind, date, index) }
+func FeedKey(kind, date string, index int) string { return menu.FeedKey(kind, date, index) }
 
 // PlanRow is a plan as listed on a client's page.
 type PlanRow struct {
