@@ -299,10 +299,14 @@ func intensityWords(x string) string {
 }
 
 // suggestFor makes the food suggestions of a plan's feeds, by store.FeedKey.
-func suggestFor(plan fuel.Plan, foods []menu.Food) map[string]string { return menu.PlanSuggestions(plan, foods) }
+func suggestFor(plan fuel.Plan, foods []menu.Food) map[string]string {
+	return menu.PlanSuggestions(plan, foods)
+}
 
 // suggestionTexts is what a save stores with the feeds.
-func suggestionTexts(plan fuel.Plan, foods []menu.Food) map[string]string { return menu.PlanSuggestions(plan, foods) }
+func suggestionTexts(plan fuel.Plan, foods []menu.Food) map[string]string {
+	return menu.PlanSuggestions(plan, foods)
+}
 
 // ----- client page hooks -----
 
