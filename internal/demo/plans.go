@@ -99,7 +99,7 @@ func (d demoPlans) training(clientID int64, from, to time.Time) ([]fuel.Training
 
 func cautions(text string) []string {
 	var out []string
-	for _, p := range strings.FieldsFunc(text, func(r rune) bool { return r == '\n' || r == ';' }) {
+	for _, p := range strings.Split(text, "\n") {
 		if p = strings.TrimSpace(p); p != "" {
 			if r := []rune(p); len(r) > 200 {
 				p = string(r[:200])
@@ -168,7 +168,8 @@ func (d demoPlans) eventPlan(clientID, eventID int64, kind, protocol, title stri
 }
 
 // repletionPlan finds the latest day of the rower's log with two sessions
-// and plans the refuelling between them.
+// less than 8 h apart (where speedy refuelling applies) and plans the
+// refuelling between them.
 func (d demoPlans) repletionPlan(clientID, eventID int64) error {
 	const title = "Repletion between the two sessions of a double day"
 	if ok, err := d.exists(clientID, title); err != nil || ok {
@@ -204,7 +205,7 @@ func (d demoPlans) repletionPlan(clientID, eventID int64) error {
 			continue
 		}
 		e1 := s1.Add(time.Duration(a.DurationMin) * time.Minute)
-		if e1.Before(s2) {
+		if e1.Before(s2) && s2.Sub(e1) < 8*time.Hour {
 			end, next = &e1, &s2
 		}
 	}

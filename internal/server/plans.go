@@ -447,10 +447,10 @@ func buildRequest(pi planInputs) (fuel.Request, error) {
 }
 
 // splitCautions turns the client's recorded cautions (free text, one per
-// line or separated by semicolons) into the request's list.
+// line) into the request's list.
 func splitCautions(text string) []string {
 	var out []string
-	for _, part := range strings.FieldsFunc(text, func(r rune) bool { return r == '\n' || r == ';' }) {
+	for _, part := range strings.Split(text, "\n") {
 		if p := strings.TrimSpace(part); p != "" {
 			if r := []rune(p); len(r) > 200 {
 				p = string(r[:200])

@@ -48,7 +48,11 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 				pv.DraftURL = web.Path("clients", c.ID, "plans", p.ID, "versions", x.Version)
 			}
 		}
-		vv := web.VersionView{Number: x.Version, Status: x.Status, CreatedBy: x.CreatedByName,
+		by := x.CreatedByName
+		if by == "" {
+			by = "Larder (demo loader or command line)"
+		}
+		vv := web.VersionView{Number: x.Version, Status: x.Status, CreatedBy: by,
 			CreatedAt: x.CreatedAt.In(loc).Format("Mon 2 Jan 2006 15:04"), Current: x.ID == v.ID,
 			URL: web.Path("clients", c.ID, "plans", p.ID, "versions", x.Version), PublishedAt: "—"}
 		if x.PublishedAt != nil {
@@ -336,8 +340,20 @@ func (s *Server) clientPlansSection(r *http.Request, c store.Client) (templ.Comp
 				web.Option{Value: base + "?kind=race&event=" + web.ID(e.ID), Label: "Race-day plan for " + e.Name})
 		}
 	}
+	repletion := web.Option{Value: base + "?kind=repletion", Label: "Repletion plan"}
+	// Offer repletion after the latest session with a start time, so the
+	// form comes prefilled with its end and the next session's start.
+	if ts, err := s.Store.TrainingBetween(r.Context(), c.ID, s.Today().AddDate(0, 0, -7), s.Today()); err == nil {
+		for i := len(ts) - 1; i >= 0; i-- {
+			if ts[i].StartTime != "" {
+				repletion = web.Option{Value: base + "?kind=repletion&training=" + web.ID(ts[i].ID),
+					Label: "Repletion after " + ts[i].OnDate.Format("Mon 2 Jan") + " " + ts[i].StartTime}
+				break
+			}
+		}
+	}
 	v.Starts = append(v.Starts,
-		web.Option{Value: base + "?kind=repletion", Label: "Repletion plan"},
+		repletion,
 		web.Option{Value: base + "?kind=week", Label: "Training-week plan"})
 	return web.ClientPlans(v), nil
 }
