@@ -122,15 +122,15 @@ func kcalPerLitreO2(share float64) float64 {
 func intensityPct(in Intensity) float64 {
 	switch in.Word {
 	case "easy":
-		return 50
+		return gEasy.Min
 	case "hard":
-		return 80
+		return gHard.Min
 	case "rpe":
-		return 40 + 5*in.N
+		return gRPE.Min + gRPE.Max*in.N
 	case "pct":
 		return in.N
 	}
-	return 65
+	return gModerate.Min
 }
 
 // metAt interpolates a modality's MET value at %VO2max: easy at 50, the

@@ -117,7 +117,7 @@ func (p *planner) setup() {
 		if err != nil {
 			continue // validated
 		}
-		startMin := 16 * 60
+		startMin := int(gSessionStart.Min * 60)
 		if t.Start != "" {
 			if c, err := time.Parse("15:04", t.Start); err == nil {
 				startMin = c.Hour()*60 + c.Minute()
@@ -141,7 +141,7 @@ func (p *planner) setup() {
 	}
 	p.plan = Plan{
 		Kind:              req.Kind,
-		TimeZone:          p.loc.String(),
+		TimeZone:          zoneName(p.loc, req),
 		BodyMassKg:        req.Athlete.BodyMassKg,
 		FatFreeMassKg:     round1(p.body.FFMKg),
 		FatFreeMassMethod: p.body.FFMMethod,
@@ -151,6 +151,22 @@ func (p *planner) setup() {
 	if req.Event != nil {
 		p.eventFigures()
 	}
+}
+
+// zoneName names the plan's zone: the IANA name, or the offset (like
+// "+02:00") when times carry only an offset.
+func zoneName(loc *time.Location, req Request) string {
+	if n := loc.String(); n != "" {
+		return n
+	}
+	var t time.Time
+	switch {
+	case req.Event != nil:
+		t = req.Event.StartsAt
+	case req.SessionEnd != nil:
+		t = *req.SessionEnd
+	}
+	return t.Format("-07:00")
 }
 
 // eventFigures computes the event's energy, carbohydrate share and use.
@@ -659,9 +675,9 @@ func (p *planner) preEventMeal() *PreEventMeal {
 	if p.ev.ExpectedDurationMin <= gPreEventMin.Min {
 		return nil
 	}
-	h := 3.0
+	h := gPreDefaultH.Min
 	earliest := clockOn(p.evStart, int(gPreEarliest.Min*60))
-	if p.evStart.Add(-3 * time.Hour).Before(earliest) {
+	if p.evStart.Add(-time.Duration(h * float64(time.Hour))).Before(earliest) {
 		h = math.Floor(p.evStart.Sub(earliest).Hours()*2) / 2
 	}
 	h = math.Max(gPreEventHours.Min, math.Min(gPreEventHours.Max, h))

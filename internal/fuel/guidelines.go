@@ -150,6 +150,19 @@ var Guidelines = []Guideline{
 	{"protein.target", "daily protein target (inside 1.2–2.0)", 1.6, 1.6, "g/kg/day", SrcModel},
 	{"fat.share", "fat share of energy when no energy target is known: 25% on ordinary days, 22% on load days (both above the 20% floor)", 0.22, 0.25, "share of energy", SrcModel},
 	{"recovery.feed", "recovery feed after an event or hard session", 1.0, 1.0, "g/kg", SrcCommon},
+	// The day-target line through effective training minutes (Min) and
+	// g/kg/day (Max), kept inside the day's band afterwards.
+	{"model.target-line.0", "day-target line: no training", 0, 3, "effective min; g/kg/day", SrcModel},
+	{"model.target-line.1", "day-target line: 45 effective min", 45, 5, "effective min; g/kg/day", SrcModel},
+	{"model.target-line.2", "day-target line: 90 effective min", 90, 6, "effective min; g/kg/day", SrcModel},
+	{"model.target-line.3", "day-target line: 300 effective min", 300, 9, "effective min; g/kg/day", SrcModel},
+	{"model.target-line.4", "day-target line: 480 effective min", 480, 12, "effective min; g/kg/day", SrcModel},
+	{"model.intensity.easy", "a session logged as easy", 50, 50, "% VO2max", SrcModel},
+	{"model.intensity.moderate", "a session logged as moderate (or without intensity)", 65, 65, "% VO2max", SrcModel},
+	{"model.intensity.hard", "a session logged as hard", 80, 80, "% VO2max", SrcModel},
+	{"model.intensity.rpe", "a session logged as rpe:N is at 40 + 5·N % VO2max", 40, 5, "% VO2max; per RPE point", SrcModel},
+	{"model.session-start", "start of a session logged without a time", 16, 16, "h (16:00)", SrcModel},
+	{"pre-event.default-hours", "pre-event meal time before the start, when the clock allows", 3, 3, "h", SrcModel},
 	{"model.run-fraction", "share of a session's work drawn from the working muscle's glycogen vs. blood glucose from the liver", 0.8, 0.8, "share", SrcModel},
 }
 
@@ -250,6 +263,12 @@ var (
 	gFatShare            = guideline("fat.share")
 	gRecoveryFeed        = guideline("recovery.feed")
 	gMarathonWall        = guideline("marathon.wall")
+	gEasy                = guideline("model.intensity.easy")
+	gModerate            = guideline("model.intensity.moderate")
+	gHard                = guideline("model.intensity.hard")
+	gRPE                 = guideline("model.intensity.rpe")
+	gSessionStart        = guideline("model.session-start")
+	gPreDefaultH         = guideline("pre-event.default-hours")
 	gLiver70             = guideline("liver.fed-70kg")
 	gMuscle70            = guideline("muscle.70kg")
 )

@@ -64,7 +64,7 @@ func bandFor(effMin, trainMin float64) band {
 
 // bandTarget is the day's target: one line through the load, from 3 g/kg
 // at no training through 5 at 45, 6 at 90, 9 at 300 and 12 at 480
-// effective minutes (model assumption), kept inside the day's band and
+// effective minutes (model assumption, in Guidelines), kept inside the day's band and
 // rounded down to a practical 0.5 g/kg. One line for all bands keeps more
 // training from ever meaning less carbohydrate. Rest days sit at the
 // lower end of the light band.
@@ -78,8 +78,15 @@ func bandTarget(b band, effMin float64) float64 {
 	return math.Max(lo, math.Min(hi, t))
 }
 
-var lineE = [...]float64{0, 45, 90, 300, 480}
-var lineG = [...]float64{3, 5, 6, 9, 12}
+// lineE and lineG are the knots of the target line (Guidelines
+// "model.target-line.N").
+var lineE, lineG = func() (e, g [5]float64) {
+	for i := range e {
+		gl := guideline("model.target-line." + string(rune('0'+i)))
+		e[i], g[i] = gl.Min, gl.Max
+	}
+	return
+}()
 
 func targetLine(e float64) float64 {
 	if e <= lineE[0] {
