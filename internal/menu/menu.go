@@ -34,6 +34,9 @@ type Need struct {
 	LowFibre bool
 	// OnTheMove restricts the choice to drinks and portable foods (in-event feeds).
 	OnTheMove bool
+	// PreferOnTheMove tries drinks and portable foods first and falls back to
+	// the whole list (feeds every 15–60 min of a repletion window).
+	PreferOnTheMove bool
 	// Avoid lists food IDs to leave out when an alternative exists, so that
 	// successive feeds of a day do not all suggest the same food.
 	Avoid []int64
@@ -102,6 +105,14 @@ func IsLowFibre(f Food) bool {
 // lower fibre. ok is false when no combination fits, for example when the
 // list has no drinks or portable foods for an in-event feed.
 func Suggest(foods []Food, need Need) (s Suggestion, ok bool) {
+	if need.PreferOnTheMove && !need.OnTheMove {
+		quick := need
+		quick.OnTheMove, quick.PreferOnTheMove = true, false
+		if s, ok := Suggest(foods, quick); ok {
+			return s, true
+		}
+		need.PreferOnTheMove = false
+	}
 	s = Suggestion{TargetG: need.ChoG, ToleranceG: Tolerance(need.ChoG)}
 	if !(need.ChoG > 0) || math.IsInf(need.ChoG, 0) {
 		return s, false

@@ -238,3 +238,25 @@ func TestEnergyCheckCatchesSlips(t *testing.T) {
 		t.Error("the table's own 356 kcal for rice flagged")
 	}
 }
+
+func TestPreferOnTheMoveFallsBack(t *testing.T) {
+	foods := loadIFCT(t)
+	s, ok := Suggest(foods, Need{ChoG: 50, PreferOnTheMove: true})
+	if !ok {
+		t.Fatal("no suggestion")
+	}
+	for _, it := range s.Items {
+		if !it.Food.Liquid && !it.Food.Portable {
+			t.Errorf("preferred drinks/portables but got %s", it.Food.Name)
+		}
+	}
+	var staples []Food
+	for _, f := range foods {
+		if !f.Liquid && !f.Portable {
+			staples = append(staples, f)
+		}
+	}
+	if _, ok := Suggest(staples, Need{ChoG: 50, PreferOnTheMove: true}); !ok {
+		t.Error("no fallback to the whole list when no drink or portable food fits")
+	}
+}

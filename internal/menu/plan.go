@@ -18,7 +18,8 @@ const NoFit = "No combination of 1–3 foods on the list fits."
 // PlanSuggestions makes the food suggestions of every feed of a plan, by
 // FeedKey: day feeds in order (low-fibre on the days the plan marks so, on the
 // move for the in-event share of the event day), the pre-event meal
-// (low-fibre), and the repletion feeds.
+// (low-fibre), and the repletion feeds (drinks and portable foods first:
+// they come every 15–60 min, soon after a session).
 func PlanSuggestions(plan fuel.Plan, foods []Food) map[string]string {
 	out := map[string]string{}
 	loc, err := time.LoadLocation(plan.TimeZone)
@@ -28,7 +29,8 @@ func PlanSuggestions(plan fuel.Plan, foods []Food) map[string]string {
 	for _, d := range plan.Days {
 		needs := make([]Need, len(d.Feeds))
 		for i, f := range d.Feeds {
-			needs[i] = Need{ChoG: f.ChoG, LowFibre: d.LowFibre, OnTheMove: strings.Contains(f.Label, "during")}
+			needs[i] = Need{ChoG: f.ChoG, LowFibre: d.LowFibre, OnTheMove: strings.Contains(f.Label, "during"),
+				PreferOnTheMove: strings.Contains(f.Label, "refuel")}
 		}
 		sugg, ok := SuggestDay(foods, needs)
 		for i := range needs {
@@ -48,7 +50,7 @@ func PlanSuggestions(plan fuel.Plan, foods []Food) map[string]string {
 	if rp := plan.Repletion; rp != nil {
 		needs := make([]Need, len(rp.Feeds))
 		for i, f := range rp.Feeds {
-			needs[i] = Need{ChoG: f.ChoG}
+			needs[i] = Need{ChoG: f.ChoG, PreferOnTheMove: true}
 		}
 		sugg, ok := SuggestDay(foods, needs)
 		for i, f := range rp.Feeds {
