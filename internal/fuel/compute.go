@@ -1067,14 +1067,27 @@ func (p *planner) repletion() {
 			}
 		}
 	}
-	// Stores: the working muscle starts near the top of the depleted band
-	// after a demanding session, unless the training log holds that
-	// session, in which case the simulation runs it from the day's start.
+	// Stores at the session's end: when the training log holds the session
+	// (ending within 15 min of session_end), the simulation runs that day
+	// from midnight through it on the day's feeds; otherwise the working
+	// muscle is taken as near the top of the depleted band, as after a
+	// demanding session.
+	from, to := end.Unix(), next.Unix()
+	in := p.intakes(p.plan.Days, to)
 	s := p.startState()
 	s.Dw = gDepleted.Max
 	s = s.since(0)
-	from, to := end.Unix(), next.Unix()
-	in := p.intakes(p.plan.Days, to)
+	for _, ses := range p.sessions {
+		sEndAt := ses.start.Add(time.Duration(ses.durMin * float64(time.Minute)))
+		if d := sEndAt.Sub(end); d < -15*time.Minute || d > 15*time.Minute || ses.durMin <= 0 {
+			continue
+		}
+		dayStart := midnight(ses.start, p.loc).Unix()
+		ex := p.exercises(dayStart, from)
+		s = p.sb.simulate(p.startState(), dayStart, from, ex, in, nil, 3600, p.loc)
+		r.SessionSimulated = true
+		break
+	}
 	curve := make([]GlycogenPoint, 0, (to-from)/900+2)
 	sEnd := p.sb.simulate(s, from, to, nil, in, &curve, 900, p.loc)
 	curve = append(curve, p.sb.point(sEnd, to, p.loc))

@@ -181,10 +181,13 @@ type Repletion struct {
 	Feeds              []Feed  `json:"feeds"`
 	MuscleGAtNextStart float64 `json:"muscle_g_at_next_start"`
 	// The working muscle's share: at the session's end and at the next start.
-	WorkingMuscleGAtEnd       float64         `json:"working_muscle_g_at_end"`
-	WorkingMuscleGAtNextStart float64         `json:"working_muscle_g_at_next_start"`
-	MuscleGCapacity           float64         `json:"muscle_g_capacity"`
-	Curve                     []GlycogenPoint `json:"curve"`
+	WorkingMuscleGAtEnd       float64 `json:"working_muscle_g_at_end"`
+	WorkingMuscleGAtNextStart float64 `json:"working_muscle_g_at_next_start"`
+	// SessionSimulated tells whether the session that ended was found in
+	// the training log and simulated (otherwise its end state is assumed).
+	SessionSimulated bool            `json:"session_simulated"`
+	MuscleGCapacity  float64         `json:"muscle_g_capacity"`
+	Curve            []GlycogenPoint `json:"curve"`
 }
 
 // MarshalJSON writes cho_g_per_kg_per_h as null when the speedy protocol
