@@ -215,15 +215,15 @@ func (p *planner) dayOverride(date string) *DayOverride {
 // window is a span of time in which no ordinary meal is placed.
 type window struct{ from, to time.Time }
 
-// fixedFeed is a feed whose grams are set by a protocol.
+// dayPlan is a day before its feeds are laid out: the targets, the feeds
+// a protocol fixes (pre-event meal, in-event fuelling, recovery and
+// refuelling feeds) and the windows where no ordinary meal goes.
 type dayPlan struct {
-	day      Day
-	date     time.Time
-	fixed    []Feed
-	blocked  []window
-	noMeals  bool // only fixed feeds (none of the ordinary schedule)
-	loadDay  bool
-	occasion int
+	day     Day
+	date    time.Time
+	fixed   []Feed
+	blocked []window
+	loadDay bool
 }
 
 // buildDay turns a day plan into a Day with feeds that add up to its grams.
@@ -275,9 +275,6 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	// Ordinary eating occasions, moved out of training and dropped in
 	// blocked windows.
 	sched := scheduleFor(occ)
-	if dp.noMeals {
-		sched = nil
-	}
 	n := len(dp.fixed) + len(sched)
 	feeds := make([]Feed, 0, n+1)
 	feeds = append(feeds, dp.fixed...)

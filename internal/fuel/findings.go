@@ -201,6 +201,11 @@ func (p *planner) checkDay(d *Day) {
 		p.find(code, LevelOutside, subj, src, "Carbohydrate %g g/kg (%g g) is outside "+what+" of %g–%g %s, because the pre-event meal and in-event fuelling alone need that much.",
 			d.ChoGPerKg, d.ChoG, band, d.BandMinGPerKg, d.BandMaxGPerKg, unit)
 	}
+	if ov := p.dayOverride(d.Date); ov != nil && ov.ChoGPerKg != nil && d.ChoGPerKg > round1(*ov.ChoGPerKg) {
+		p.find("override-raised", LevelNote, subj, SrcCommon,
+			"The override of %g g/kg is less than the protocol's feeds of this day need (pre-event meal, in-event and recovery feeds); the day carries %g g/kg.",
+			round1(*ov.ChoGPerKg), d.ChoGPerKg)
+	}
 	if d.Role == RoleLoad && p.body.Sex == "female" {
 		perFFM := 0.0
 		if p.body.FFMKg > 0 {

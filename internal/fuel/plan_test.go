@@ -534,6 +534,26 @@ func TestOverridesAreKeptAndChecked(t *testing.T) {
 	}
 }
 
+func TestEventDayOverrideBelowProtocolFeeds(t *testing.T) {
+	req := loadRequest(t, "cyclist-5h-race.json")
+	// 2 g/kg is less than the pre-event meal and 5 h of in-event fuelling need.
+	req.Overrides = []DayOverride{{Date: "2027-06-12", ChoGPerKg: ptr(2.0)}}
+	p := mustCompute(t, req)
+	d := p.Days[0]
+	var fixed float64
+	for _, f := range d.Feeds {
+		if f.Label == labelPreEvent || f.Label == labelDuring || f.Label == labelRecovery {
+			fixed += f.ChoG
+		}
+	}
+	if d.ChoG < fixed || !d.Overridden {
+		t.Errorf("day %g g carries less than its protocol feeds %g g", d.ChoG, fixed)
+	}
+	if f := oneFinding(t, p, "override-raised", "day:2027-06-12"); !strings.Contains(f.Message, "2 g/kg") {
+		t.Errorf("override-raised: %s", f.Message)
+	}
+}
+
 func TestWeekPlanAndCautions(t *testing.T) {
 	req := loadRequest(t, "training-week.json")
 	p := mustCompute(t, req)
