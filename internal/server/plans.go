@@ -587,6 +587,9 @@ func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, 
 	if !pv.Editable && notice != "" {
 		pv.Carry = carriedValues(f)
 	}
+	if pv.Editable && notice != "" {
+		pv.Theirs = differing(f, overrideValues(v.Request))
+	}
 	s.Render(w, r, status, p.Title, "clients", web.PlanPage(pv))
 }
 
@@ -820,6 +823,29 @@ func (s *Server) editPlanVersion(w http.ResponseWriter, r *http.Request) {
 		s.Flash(r, "Draft saved and checked again.")
 	}
 	Redirect(w, r, web.Path("clients", c.ID, "plans", p.ID, "versions", saved.Version))
+}
+
+// differing lists, for each override input, the saved value where it is not
+// what the person typed ("none" where the saved version has no override).
+func differing(typed, saved forms.Form) map[string]string {
+	out := map[string]string{}
+	seen := map[string]bool{}
+	for name := range overrideInputs(typed.Values) {
+		seen[name] = true
+	}
+	for name := range overrideInputs(saved.Values) {
+		seen[name] = true
+	}
+	for name := range seen {
+		t, s := strings.TrimSpace(typed.Get(name)), strings.TrimSpace(saved.Get(name))
+		if t != s {
+			if s == "" {
+				s = "none (computed)"
+			}
+			out[name] = s
+		}
+	}
+	return out
 }
 
 // carriedValues lists the override values a person typed, in words, for a

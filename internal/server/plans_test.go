@@ -299,7 +299,7 @@ func TestConcurrentEditConflict(t *testing.T) {
 	if res.status != http.StatusConflict {
 		t.Fatalf("stale save: status %d", res.status)
 	}
-	res.mustContain(t, "Not saved", aliceUser.Name, `value="10.5"`, `value="75"`, `name="revision" value="`+strconv.Itoa(v.Revision+1)+`"`)
+	res.mustContain(t, "Not saved", aliceUser.Name, `value="10.5"`, `value="75"`, `name="revision" value="`+strconv.Itoa(v.Revision+1)+`"`, "saved meanwhile: 11")
 	now := latestVersion(t, a, pid)
 	if *now.Request.Overrides[0].ChoGPerKg != 11 || now.Request.DuringEventChoGPerH != nil {
 		t.Fatalf("the stale save changed the draft: %+v", now.Request)
