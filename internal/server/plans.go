@@ -194,12 +194,19 @@ func loadZone(name string) *time.Location {
 
 func (s *Server) renderPlanStart(w http.ResponseWriter, r *http.Request, status int, c store.Client, events []store.Event, f forms.Form) {
 	opts := []web.Option{{Value: "0", Label: "— no event —"}}
+	var lines []web.EventLine
 	for _, e := range events {
 		opts = append(opts, web.Option{Value: web.ID(e.ID), Label: e.Name + ", " + web.DateTimeZone(e.StartsAt, e.TimeZone)})
+		l := web.EventLine{Name: e.Name, Start: e.LocalStart().Format("Mon 2 Jan 2006 15:04"), Zone: e.TimeZone,
+			Distance: "—", Duration: hoursWords(float64(e.ExpectedDurationMin)), Priority: e.Priority}
+		if e.DistanceKm != nil {
+			l.Distance = web.Num(*e.DistanceKm, 3) + " km"
+		}
+		lines = append(lines, l)
 	}
 	v := web.PlanStartView{
 		ClientID: c.ID, ClientName: c.Name, ClientCautions: c.Cautions, Sex: c.Sex,
-		Events: opts, Kinds: planKinds, Protocols: planProtocols, Caution: fuel.Caution, Form: f,
+		Events: opts, EventLines: lines, Kinds: planKinds, Protocols: planProtocols, Caution: fuel.Caution, Form: f,
 	}
 	if on, err := time.Parse(forms.DateLayout, f.Get("body_mass_on")); err == nil {
 		v.BodyMassNote = "Latest measurement: " + f.Get("body_mass_prefill") + " kg on " + web.Date(on) + "."

@@ -140,7 +140,7 @@ func TestNewPlanFormPrefill(t *testing.T) {
 	}
 	res := b.get("/clients/" + itoa64(c) + "/plans/new?kind=loading&event=" + itoa64(demo.IDs.Events["marathon"]))
 	res.mustContain(t, `name="body_mass_kg" value="`+strconv.FormatFloat(m.MassKg, 'f', -1, 64)+`"`, "Latest measurement",
-		`value="`+itoa64(demo.IDs.Events["marathon"])+`" selected`, "training-used", "female")
+		`value="`+itoa64(demo.IDs.Events["marathon"])+`" selected`, "training-used", "female", "events-known", "42.195 km", "3 h 15 min", "Europe/Oslo")
 
 	// A body mass more than 14 days old is flagged.
 	old := a.newClient(unique("Stale mass"))
