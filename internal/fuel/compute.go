@@ -433,7 +433,9 @@ func (p *planner) applyFeedOverrides(d *Day, dp *dayPlan, fixed []bool) {
 				}
 			}
 			if !placed {
+				// Every feed is fixed: the day is exactly their sum.
 				d.ChoG = fixedSum
+				d.ChoGPerKg = round1(fixedSum / p.body.MassKg)
 			}
 			d.Overridden = true
 			macros(d, p.body.MassKg, p.body.FFMKg, *d.ExerciseEnergyKcal, dp.loadDay)
@@ -466,7 +468,9 @@ func (p *planner) applyFeedOverrides(d *Day, dp *dayPlan, fixed []bool) {
 				p.plan.PreEventMeal.At = f.At
 				p.plan.PreEventMeal.ChoG = f.ChoG
 				p.plan.PreEventMeal.ChoGPerKg = round1(f.ChoG / p.body.MassKg)
-				p.plan.PreEventMeal.HoursBefore = round1(p.evStart.Sub(f.At).Hours())
+				// A meal moved to or past the start is 0 h before it (and
+				// outside the guideline, which its finding says).
+				p.plan.PreEventMeal.HoursBefore = round1(max(0, p.evStart.Sub(f.At).Hours()))
 			}
 		}
 	}

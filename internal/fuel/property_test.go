@@ -132,7 +132,11 @@ func randomRequest(r *rand.Rand) Request {
 		req.Overrides = []DayOverride{{Date: start.AddDate(0, 0, -1).Format("2006-01-02"), ChoGPerKg: ptr(r.Float64() * 15)}}
 	}
 	if r.IntN(3) == 0 {
-		req.FeedOverrides = []FeedOverride{{Date: start.AddDate(0, 0, -2).Format("2006-01-02"), Index: r.IntN(6), ChoG: ptr(r.Float64() * 400)}}
+		fo := FeedOverride{Date: start.AddDate(0, 0, -r.IntN(3)).Format("2006-01-02"), Index: r.IntN(6), ChoG: ptr(r.Float64() * 400)}
+		if r.IntN(2) == 0 {
+			fo.At = fmt.Sprintf("%02d:%02d", r.IntN(24), r.IntN(60))
+		}
+		req.FeedOverrides = []FeedOverride{fo}
 	}
 	if r.IntN(4) == 0 {
 		req.Cautions = []string{"type 1 diabetes"}

@@ -121,10 +121,12 @@ func (p Plan) MarshalJSON() ([]byte, error) {
 
 // Day is one plan day.
 type Day struct {
-	Date          string  `json:"date"`
-	Role          string  `json:"role"` // taper|load|event|recovery|training|repletion
-	TrainingMin   float64 `json:"training_min"`
-	LoadBand      string  `json:"load_band"` // light|moderate|high|very-high|rest
+	Date        string  `json:"date"`
+	Role        string  `json:"role"` // taper|load|event|recovery|training|repletion
+	TrainingMin float64 `json:"training_min"`
+	LoadBand    string  `json:"load_band"` // light|moderate|high|very-high|rest, from the day's training
+	// BandMin/MaxGPerKg is the range the day's carbohydrate is checked
+	// against: the load band's, or on load days the loading range 10–12.
 	BandMinGPerKg float64 `json:"band_min_g_per_kg"`
 	BandMaxGPerKg float64 `json:"band_max_g_per_kg"`
 	ChoGPerKg     float64 `json:"cho_g_per_kg"`
@@ -146,11 +148,13 @@ type Day struct {
 
 // Feed is one eating occasion.
 type Feed struct {
-	At         time.Time `json:"at"`
-	Label      string    `json:"label"` // breakfast, snack, lunch, ...
-	ChoG       float64   `json:"cho_g"`
-	ProteinG   float64   `json:"protein_g"`
-	Overridden bool      `json:"overridden"`
+	At time.Time `json:"at"`
+	// Label: breakfast, snack, lunch, dinner, supper, pre-event meal,
+	// during event (the in-event total, at the start), recovery, refuel.
+	Label      string  `json:"label"`
+	ChoG       float64 `json:"cho_g"`
+	ProteinG   float64 `json:"protein_g"`
+	Overridden bool    `json:"overridden"`
 }
 
 // PreEventMeal is the meal 1–4 h before the start.
