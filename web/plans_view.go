@@ -11,6 +11,11 @@ import (
 //go:embed plans.css
 var PlanCSS []byte
 
+// PlanJS is the new-plan form's small progressive enhancement, served at /assets/plans.js.
+//
+//go:embed plans.js
+var PlanJS []byte
+
 // FindingView is one finding ready to print. Its level is told by the word
 // and the symbol (a shape) as well as the colour of its class.
 type FindingView struct {

@@ -28,6 +28,11 @@ func (s *Server) mountPlanPages(r chi.Router) {
 		w.Header().Set("Cache-Control", "max-age=300")
 		_, _ = w.Write(web.PlanCSS)
 	})
+	r.Get("/assets/plans.js", func(w http.ResponseWriter, r *http.Request) {
+		w.Header().Set("Content-Type", "text/javascript; charset=utf-8")
+		w.Header().Set("Cache-Control", "max-age=300")
+		_, _ = w.Write(web.PlanJS)
+	})
 	r.Get("/clients/{clientID}/plans/new", s.newPlanPage)
 	r.Post("/clients/{clientID}/plans", s.createPlan)
 	r.Get("/clients/{clientID}/plans/{planID}", s.showPlan)
@@ -219,11 +224,24 @@ func (s *Server) renderPlanStart(w http.ResponseWriter, r *http.Request, status 
 	// Training the plan will see: the days around the chosen event, or
 	// around today.
 	from, to := s.Today().AddDate(0, 0, -3), s.Today().AddDate(0, 0, 7)
-	if id, err := strconv.ParseInt(f.Get("event_id"), 10, 64); err == nil && id > 0 {
-		for _, e := range events {
-			if e.ID == id {
-				d := dateOnly(e.LocalStart())
-				from, to = d.AddDate(0, 0, -10), d.AddDate(0, 0, 1)
+	switch kind := f.Get("kind"); {
+	case kind == fuel.KindRepletion:
+		if end, err := forms.ParseLocalDateTime(f.Get("session_end"), time.UTC); err == nil {
+			d := dateOnly(end)
+			from, to = d.AddDate(0, 0, -3), d.AddDate(0, 0, 1)
+		}
+	case kind == fuel.KindWeek:
+		if start, err := time.Parse(forms.DateLayout, f.Get("start_date")); err == nil {
+			days, _ := strconv.Atoi(f.Get("days"))
+			from, to = start.AddDate(0, 0, -7), start.AddDate(0, 0, max(days, 1))
+		}
+	default:
+		if id, err := strconv.ParseInt(f.Get("event_id"), 10, 64); err == nil && id > 0 {
+			for _, e := range events {
+				if e.ID == id {
+					d := dateOnly(e.LocalStart())
+					from, to = d.AddDate(0, 0, -10), d.AddDate(0, 0, 1)
+				}
 			}
 		}
 	}
