@@ -137,6 +137,7 @@ var Guidelines = []Guideline{
 	{"model.working.triathlon", "working muscle share of skeletal muscle, triathlon", 0.75, 0.75, "share", SrcModel},
 	{"model.other-muscle-rate", "synthesis in muscle that did not exercise, as a share of the working muscle's rested rate (supercompensation is local to exercised muscle)", 0.25, 0.25, "share", SrcModel},
 	{"model.liver-glycogenolysis", "share of fasting glucose output from liver glycogen (the rest from gluconeogenesis): the liver gives up half its capacity per 10 h of fasting", 0.5, 0.5, "share", SrcCommon},
+	{"model.daily-muscle", "share of uncovered resting and daily-living carbohydrate use drawn from muscle glycogen (the rest from fat)", 0.3, 0.3, "share", SrcModel},
 	{"model.liver-share", "share of absorbed carbohydrate (after resting use) the liver takes first", 0.3, 0.3, "share", SrcModel},
 	{"fat.upper", "fat share of energy used at most when filling an energy target", 0.35, 0.35, "share of energy", SrcCommon},
 	{"model.rest-cho-ox", "resting and daily-living carbohydrate use at typical stores, scaled in proportion to stores / typical so intake sets the level stores settle at", 0.17, 0.17, "g/kg/h", SrcModel},
@@ -250,6 +251,7 @@ var (
 	gWorkTri             = guideline("model.working.triathlon")
 	gRestOx              = guideline("model.rest-cho-ox")
 	gLiverShare          = guideline("model.liver-share")
+	gDailyMuscle         = guideline("model.daily-muscle")
 	gLiverGlycogenolysis = guideline("model.liver-glycogenolysis")
 	gFatUpper            = guideline("fat.upper")
 	gOtherRate           = guideline("model.other-muscle-rate")

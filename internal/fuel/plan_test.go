@@ -608,3 +608,35 @@ func TestUnknownFatFreeMassIsNull(t *testing.T) {
 	}
 	oneFinding(t, p, "fat-free-mass-unknown", "plan")
 }
+
+func TestSeventyKgAdultSettlesNearCommonStores(t *testing.T) {
+	// Two weeks of 1 h moderate running a day on the training-load targets:
+	// common practice: a 70 kg adult stores about 400 g muscle glycogen and, fed,
+	// about 100–120 g liver glycogen; liver glycogen, the main source of blood
+	// glucose for 8–12 h after a meal (common practice), is lower after the night.
+	req := Request{Kind: KindWeek, Athlete: Athlete{Sex: "male", BodyMassKg: 70}, StartDate: "2027-03-01", Days: 14}
+	for d := 1; d <= 14; d++ {
+		req.Training = append(req.Training, TrainingSession{Date: time.Date(2027, 3, d, 0, 0, 0, 0, time.UTC).Format("2006-01-02"),
+			Start: "17:00", DurationMin: 60, Modality: "run", Intensity: "moderate"})
+	}
+	p := mustCompute(t, req)
+	var morning, evening GlycogenPoint
+	for _, c := range p.Glycogen.Curve {
+		switch c.At.Format("2006-01-02 15:04") {
+		case "2027-03-14 07:00":
+			morning = c
+		case "2027-03-14 21:00":
+			evening = c
+		}
+	}
+	t.Logf("day 14: 07:00 muscle %g g liver %g g; 21:00 muscle %g g liver %g g", morning.MuscleG, morning.LiverG, evening.MuscleG, evening.LiverG)
+	if evening.MuscleG < 300 || evening.MuscleG > 500 {
+		t.Errorf("muscle glycogen %g g, want about 400 g (300–500)", evening.MuscleG)
+	}
+	if evening.LiverG < 100 || evening.LiverG > 120 {
+		t.Errorf("fed liver glycogen %g g, want 100–120 g", evening.LiverG)
+	}
+	if morning.LiverG >= evening.LiverG {
+		t.Errorf("liver glycogen after the night (%g g) should be below the fed evening (%g g)", morning.LiverG, evening.LiverG)
+	}
+}

@@ -20,7 +20,8 @@ import (
 //     left. When fasted,
 //     the liver (the main source of blood glucose for 8–12 h after a meal,
 //     common practice) gives up glycogen at half of its capacity per 10 h,
-//     gluconeogenesis the other half; fat covers the rest of the use.
+//     gluconeogenesis the other half; muscle covers 30% of what is still
+//     uncovered (daily living, model assumption) and fat the rest.
 //   - Muscle synthesis is rate-limited: peak 8 mmol/kg/h (the top of the
 //     5–8 of Jentjens and Jeukendrup) at depleted stores just after
 //     exercise, falling as the fourth root of the room left to zero as
@@ -205,6 +206,12 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 	if r > 0 {
 		d := min(min(r, b.liverDrainGPerH*dt), s.LiverG)
 		s.LiverG -= d
+		// Daily living draws a share of the rest on muscle glycogen,
+		// spread over all muscle; fat covers what remains.
+		if m := gDailyMuscle.Min * (r - d); m > 0 && totalKg > 0 {
+			dd := m / (totalKg * gGlucosyl.Min)
+			s.Dw, s.Do = max(0, s.Dw-dd), max(0, s.Do-dd)
+		}
 	}
 	if a <= 0 {
 		return 0
