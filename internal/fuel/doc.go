@@ -45,8 +45,10 @@
 //     the other feeds share the rest of the day so feeds always add up.
 //   - sim.go: the glycogen model — working muscle, other muscle and liver
 //     in 5-minute steps over the plan (in 1-minute steps through the race):
-//     first-order gut emptying, resting carbohydrate use that scales with
-//     the stores, rate-limited muscle synthesis (peak 8 mmol/kg/h just after
+//     first-order gut emptying, a first-pass liver share, resting and
+//     daily-living carbohydrate use that scales with the stores (met by
+//     what is absorbed, else by liver, muscle and fat, so the intake sets
+//     where stores settle), rate-limited muscle synthesis (peak 8 mmol/kg/h just after
 //     exercise, a third of that rested, slowing as stores fill towards 220
 //     mmol/kg), exercise use from energy × carbohydrate share with intake
 //     covering at most about 35% at hard efforts; the stores run out when
