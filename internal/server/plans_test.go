@@ -218,6 +218,21 @@ func TestOverrideIsKeptAndRechecked(t *testing.T) {
 		t.Fatal("a refused override was saved")
 	}
 
+	// A feed's grams and time are overrides too.
+	taper := firstDay(t, v2.Result, fuel.RoleTaper)
+	b.post(editURL, url.Values{"revision": {strconv.Itoa(v2.Revision)}, "action": {"save"}, gkgName(load.Date): {"13"},
+		feedChoName(taper.Date, 1): {"55"}, feedAtName(taper.Date, 1): {"10:45"}}).mustRedirect(t, editURL)
+	vf := latestVersion(t, a, pid)
+	if len(vf.Request.FeedOverrides) != 1 || *vf.Request.FeedOverrides[0].ChoG != 55 || vf.Request.FeedOverrides[0].At != "10:45" {
+		t.Fatalf("feed override not stored: %+v", vf.Request.FeedOverrides)
+	}
+	fd := firstDay(t, vf.Result, fuel.RoleTaper).Feeds[1]
+	if !fd.Overridden || fd.ChoG != 55 || fd.At.In(loadZone(vf.Result.TimeZone)).Format("15:04") != "10:45" {
+		t.Fatalf("overridden feed: %+v", fd)
+	}
+	b.get(editURL).mustContain(t, `name="`+feedAtName(taper.Date, 1)+`" id="f-`+feedAtName(taper.Date, 1)+`" value="10:45"`)
+	v2 = vf
+
 	// Clearing the box goes back to the computed figure.
 	b.post(editURL, url.Values{"revision": {strconv.Itoa(v2.Revision)}, "action": {"save"}, gkgName(load.Date): {""}}).mustRedirect(t, editURL)
 	v3 := latestVersion(t, a, pid)
