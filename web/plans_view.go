@@ -143,6 +143,8 @@ type PlanView struct {
 	ReviseURL      string
 
 	BodyMass        string
+	MassName        string // form input names of the body figures on a draft
+	FatName         string
 	BodyMassWarning string
 	FatFreeMass     string
 	Caution         string

@@ -637,6 +637,13 @@ func feedAtName(date string, i int) string  { return fmt.Sprintf("feedat_%s_%d",
 
 const duringName = "during_gph"
 
+// Inputs of a draft's body figures: prefilled with the values used (not
+// overrides: the plan is recomputed from them as from the start form).
+const (
+	massName = "in_body_mass_kg"
+	fatName  = "in_body_fat_pct"
+)
+
 // overrideValues fills the override inputs from a request's overrides.
 func overrideValues(req fuel.Request) forms.Form {
 	v := url.Values{}
@@ -658,6 +665,10 @@ func overrideValues(req fuel.Request) forms.Form {
 	}
 	if req.DuringEventChoGPerH != nil {
 		v.Set(duringName, web.Num(*req.DuringEventChoGPerH, 1))
+	}
+	v.Set(massName, web.Num(req.Athlete.BodyMassKg, 2))
+	if req.Athlete.BodyFatPct != nil {
+		v.Set(fatName, web.Num(*req.Athlete.BodyFatPct, 1))
 	}
 	return forms.FromValues(v)
 }
@@ -698,6 +709,19 @@ func decodeOverrides(values url.Values, req fuel.Request) (fuel.Request, forms.F
 	}
 	sort.Strings(names)
 	req.DuringEventChoGPerH = nil
+	// The body figures change only when their inputs were sent.
+	if _, sent := values[massName]; sent {
+		if x, ok := number(massName, values.Get(massName), 25, 250, "Body mass", "kg"); ok {
+			req.Athlete.BodyMassKg = x
+		}
+	}
+	if _, sent := values[fatName]; sent {
+		if raw := strings.TrimSpace(values.Get(fatName)); raw == "" {
+			req.Athlete.BodyFatPct = nil
+		} else if x, ok := number(fatName, raw, 3, 60, "Body fat", "%"); ok {
+			req.Athlete.BodyFatPct = &x
+		}
+	}
 	for _, name := range names {
 		raw := strings.TrimSpace(values.Get(name))
 		if raw == "" {
@@ -826,8 +850,15 @@ func (s *Server) editPlanVersion(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: v.BodyMassKg, BodyMassOn: v.BodyMassOn,
+	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: req.Athlete.BodyMassKg, BodyMassOn: v.BodyMassOn,
 		Suggestions: suggestionTexts(plan, MenuFoods(foods))}
+	if req.Athlete.BodyMassKg != v.BodyMassKg {
+		// A new figure: dated when it is the latest measurement on record.
+		content.BodyMassOn = nil
+		if m, err := s.Store.LatestBodyMass(r.Context(), c.ID); err == nil && m.MassKg == req.Athlete.BodyMassKg {
+			content.BodyMassOn = &m.MeasuredOn
+		}
+	}
 	var saved store.PlanVersion
 	if action == "publish" {
 		saved, err = s.Store.Publish(r.Context(), Actor(r), v.ID, revision, content)
@@ -889,6 +920,10 @@ func carriedValues(f forms.Form) []web.Carried {
 		switch {
 		case name == duringName:
 			label = "In-event carbohydrate (g/h)"
+		case name == massName:
+			label = "Body mass (kg)"
+		case name == fatName:
+			label = "Body fat (%)"
 		case strings.HasPrefix(name, "gkg_"):
 			label = "Carbohydrate on " + dayWords(strings.TrimPrefix(name, "gkg_")) + " (g/kg)"
 		case strings.HasPrefix(name, "occ_"):
@@ -911,7 +946,7 @@ func carriedValues(f forms.Form) []web.Carried {
 func overrideInputs(form url.Values) url.Values {
 	v := url.Values{}
 	for name, vals := range form {
-		if name == duringName || strings.HasPrefix(name, "gkg_") || strings.HasPrefix(name, "occ_") ||
+		if name == duringName || name == massName || name == fatName || strings.HasPrefix(name, "gkg_") || strings.HasPrefix(name, "occ_") ||
 			strings.HasPrefix(name, "feedcho_") || strings.HasPrefix(name, "feedat_") {
 			v[name] = vals
 		}

@@ -502,3 +502,32 @@ func TestDemoHasPublishedPlanOfEachKind(t *testing.T) {
 		b.get("/clients/"+itoa64(clientID)+"/plans/"+itoa64(planID)).mustContain(t, `<span class="status published">published</span>`, "not medical advice")
 	}
 }
+
+func TestDraftBodyMassRecomputes(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	cid, pid := loadingPlan(t, a, b)
+	editURL := "/clients/" + itoa64(cid) + "/plans/" + itoa64(pid) + "/versions/1"
+	v := latestVersion(t, a, pid)
+	page := b.get(editURL)
+	page.mustContain(t, `name="`+massName+`" id="f-`+massName+`" value="58"`)
+
+	res := b.post(editURL, url.Values{"revision": {strconv.Itoa(v.Revision)}, "action": {"save"}, massName: {"500"}})
+	if res.status != http.StatusUnprocessableEntity {
+		t.Fatalf("bad body mass: status %d", res.status)
+	}
+	res.mustContain(t, "Body mass must be a number from 25 to 250 kg.", `value="500"`)
+
+	b.post(editURL, url.Values{"revision": {strconv.Itoa(v.Revision)}, "action": {"save"}, massName: {"61"}, fatName: {""}}).mustRedirect(t, editURL)
+	v2 := latestVersion(t, a, pid)
+	if v2.BodyMassKg != 61 || v2.Request.Athlete.BodyMassKg != 61 || v2.BodyMassOn != nil || v2.Request.Athlete.BodyFatPct != nil {
+		t.Fatalf("body figures not saved: %v kg on %v, fat %v", v2.BodyMassKg, v2.BodyMassOn, v2.Request.Athlete.BodyFatPct)
+	}
+	// grams = g/kg × body mass (common practice), now with 61 kg.
+	for _, d := range v2.Result.Days {
+		if math.Abs(d.ChoG-d.ChoGPerKg*61) > 1 {
+			t.Errorf("%s: %v g for %v g/kg at 61 kg", d.Date, d.ChoG, d.ChoGPerKg)
+		}
+	}
+	b.get(editURL).mustContain(t, "61 kg, typed in for this plan")
+}

@@ -30,6 +30,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		ReviseURL: web.Path("clients", c.ID, "plans", p.ID, "revise"),
 		Caution:   plan.Caution,
 		Tolerance: "±10 % or ±5 g, whichever is larger",
+		MassName:  massName, FatName: fatName,
 	}
 	if pv.Caution == "" {
 		pv.Caution = fuel.Caution
@@ -66,7 +67,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 	if v.BodyMassOn != nil {
 		pv.BodyMass += ", measured " + web.Date(*v.BodyMassOn)
 		if age := int(s.Today().Sub(*v.BodyMassOn).Hours() / 24); age > staleMassDays && v.Status == store.PlanDraft {
-			pv.BodyMassWarning = fmt.Sprintf("%d days old: weigh again or check before publishing.", age)
+			pv.BodyMassWarning = fmt.Sprintf("%d days old: weigh again and update the body mass here, or check it, before publishing.", age)
 		}
 	} else {
 		pv.BodyMass += ", typed in for this plan"
