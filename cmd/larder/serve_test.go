@@ -64,7 +64,7 @@ func TestCommandsAgainstDatabaseURL(t *testing.T) {
 		t.Fatalf("demo: code %d, %q %q", code, out.String(), errs.String())
 	}
 	out.Reset()
-	if code := runDemo(ctx, nil, &out, &errs); code != 0 || !strings.Contains(out.String(), "demo@example.org (password unchanged)") {
+	if code := runDemo(ctx, nil, &out, &errs); code != 0 || !strings.Contains(out.String(), "demo@example.org (password unchanged; run with --password to set a new one)") {
 		t.Fatalf("second demo: code %d, %q", code, out.String())
 	}
 }

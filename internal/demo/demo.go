@@ -55,7 +55,7 @@ func Load(ctx context.Context, st *store.Store, password string) (login string, 
 		return "", err
 	}
 	if res.Password == "" {
-		return res.Email + " (password unchanged)", nil
+		return res.Email + " (password unchanged; run with --password to set a new one)", nil
 	}
 	return res.Email + " / password: " + res.Password, nil
 }

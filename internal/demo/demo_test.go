@@ -55,7 +55,7 @@ func TestLoadTwiceDuplicatesNothing(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if login != Email+" (password unchanged)" {
+	if login != Email+" (password unchanged; run with --password to set a new one)" {
 		t.Fatalf("second load login = %q", login)
 	}
 	if second := counts(t, st); !equal(first, second) {
