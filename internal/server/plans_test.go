@@ -3,6 +3,7 @@ package server
 import (
 	"context"
 	"encoding/json"
+	"errors"
 	"math"
 	"net/http"
 	"net/url"
@@ -530,4 +531,39 @@ func TestDraftBodyMassRecomputes(t *testing.T) {
 		}
 	}
 	b.get(editURL).mustContain(t, "61 kg, typed in for this plan")
+}
+
+// Two saves racing on the same revision: the row lock and the revision
+// check let exactly one through, whatever the timing.
+func TestSimultaneousSavesOneWins(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	_, pid := loadingPlan(t, a, b)
+	v := latestVersion(t, a, pid)
+	content := store.PlanContent{Request: v.Request, Result: v.Result, BodyMassKg: v.BodyMassKg}
+	const n = 6
+	errs := make(chan error, n)
+	for i := 0; i < n; i++ {
+		go func() {
+			_, err := a.st.SaveDraft(context.Background(), store.System, v.ID, v.Revision, content)
+			errs <- err
+		}()
+	}
+	ok, stale := 0, 0
+	for i := 0; i < n; i++ {
+		switch err := <-errs; {
+		case err == nil:
+			ok++
+		case errors.Is(err, store.ErrStaleRevision):
+			stale++
+		default:
+			t.Errorf("save: %v", err)
+		}
+	}
+	if ok != 1 || stale != n-1 {
+		t.Fatalf("%d saves won, %d refused; want 1 and %d", ok, stale, n-1)
+	}
+	if got := latestVersion(t, a, pid).Revision; got != v.Revision+1 {
+		t.Fatalf("revision %d after one save from %d", got, v.Revision)
+	}
 }
