@@ -1099,7 +1099,7 @@ func PlanPage(v PlanView) templ.Component {
 				return templ_7745c5c3_Err
 			}
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 89, "<h2>Day by day</h2><table class=\"data plan-days\" id=\"plan-days\"><thead><tr><th>Date</th><th>Training</th><th>Load band</th><th class=\"num\">Carbohydrate g/kg</th><th class=\"num\">Carbohydrate g</th><th class=\"num\">Protein g</th><th class=\"num\">Fat g</th><th class=\"num\">Energy kcal</th><th class=\"num\">Eating occasions</th></tr></thead> <tbody>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 89, "<h2>Day by day</h2><table class=\"data plan-days\" id=\"plan-days\"><thead><tr><th>Date</th><th>Training</th><th>Training load</th><th class=\"num\">Carbohydrate g/kg</th><th class=\"num\">Carbohydrate g</th><th class=\"num\">Protein g</th><th class=\"num\">Fat g</th><th class=\"num\">Energy kcal</th><th class=\"num\">Eating occasions</th></tr></thead> <tbody>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
@@ -1197,14 +1197,14 @@ func PlanPage(v PlanView) templ.Component {
 				return templ_7745c5c3_Err
 			}
 			if d.Band != "" {
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 99, "<span class=\"computed\">band ")
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 99, "<span class=\"computed\">guideline ")
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
 				var templ_7745c5c3_Var64 string
 				templ_7745c5c3_Var64, templ_7745c5c3_Err = templ.JoinStringErrs(d.Band)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `plans.templ`, Line: 194, Col: 43}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `plans.templ`, Line: 194, Col: 48}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var64))
 				if templ_7745c5c3_Err != nil {
