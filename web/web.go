@@ -209,7 +209,7 @@ func AuditText(a store.AuditEntry) string {
 	verb := map[string]string{
 		"create": "created", "update": "changed", "delete": "deleted", "archive": "archived", "unarchive": "unarchived",
 		"sign_in": "signed in", "sign_out": "signed out", "set_password": "set the password of", "change_role": "changed the role of",
-		"disable": "disabled", "enable": "enabled", "load": "loaded",
+		"disable": "disabled", "enable": "enabled", "load": "loaded", "revoke": "revoked",
 	}[a.Action]
 	if verb == "" {
 		verb = a.Action
@@ -218,7 +218,7 @@ func AuditText(a store.AuditEntry) string {
 		return verb
 	}
 	noun := map[string]string{"client": "client", "body_mass": "a body-mass measurement", "training": "a training session",
-		"event": "an event", "user": "staff account", "setting": "a practice setting", "demo": "the demo practice"}[a.Entity]
+		"event": "an event", "user": "staff account", "setting": "a practice setting", "demo": "the demo practice", "client_link": "a client link"}[a.Entity]
 	if noun == "" {
 		noun = a.Entity
 	}

@@ -159,6 +159,12 @@ func (s *Server) clientPage(w http.ResponseWriter, r *http.Request) {
 			return
 		}
 	}
+	if s.ClientLinkSection != nil {
+		if d.Link, err = s.ClientLinkSection(r, c); err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
+	}
 	if s.ClientBodyMassChart != nil && len(masses) > 1 {
 		if d.BodyMassChart, err = s.ClientBodyMassChart(r, c, masses); err != nil {
 			s.ServerError(w, r, err)

@@ -42,6 +42,9 @@ type Server struct {
 	// ClientBodyMassChart, when set, renders a body-mass trend beside the
 	// body-mass history on a client's page.
 	ClientBodyMassChart func(r *http.Request, c store.Client, history []store.BodyMass) (templ.Component, error)
+	// ClientLinkSection, when set (by mountLinkRoutes), renders the client
+	// links section of a client's page.
+	ClientLinkSection func(r *http.Request, c store.Client) (templ.Component, error)
 
 	handler http.Handler
 }
