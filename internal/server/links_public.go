@@ -1,0 +1,356 @@
+package server
+
+import (
+	"bytes"
+	"errors"
+	"net/http"
+	"sort"
+	"strings"
+	"time"
+
+	"github.com/go-chi/chi/v5"
+
+	"larder/internal/auth"
+	"larder/internal/fuel"
+	"larder/internal/menu"
+	"larder/internal/sheet"
+	"larder/internal/store"
+	"larder/web"
+)
+
+// The client's side of a client link: GET /c/{token} (phone page) and
+// GET /c/{token}/plan.ics (calendar feed). No staff session is involved;
+// the unguessable token is the only key, and it opens one client's
+// published plans and nothing else.
+
+// mountClientLinkRoutes adds the public routes (outside the sign-in group).
+func (s *Server) mountClientLinkRoutes(r chi.Router) {
+	r.Group(func(r chi.Router) {
+		r.Use(clientLinkHeaders)
+		r.Get("/c/{token}", s.clientDayPage)
+		r.Get("/c/{token}/plan.ics", s.clientCalendar)
+	})
+}
+
+// clientLinkHeaders keeps the link out of caches, referrers and search
+// engines: the address itself is the secret.
+func clientLinkHeaders(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		h := w.Header()
+		h.Set("Cache-Control", "no-store")
+		h.Set("Referrer-Policy", "no-referrer")
+		h.Set("X-Robots-Tag", "noindex, nofollow")
+		next.ServeHTTP(w, r)
+	})
+}
+
+// linkClient resolves {token} to its client; ok is false (and the plain
+// "no longer valid" page written) for anything else.
+func (s *Server) linkClient(w http.ResponseWriter, r *http.Request) (store.Client, bool) {
+	token := chi.URLParam(r, "token")
+	if !auth.LinkTokenShape(token) {
+		s.linkGone(w, r)
+		return store.Client{}, false
+	}
+	hash := auth.HashLinkToken(token)
+	l, err := s.Store.UseClientLink(r.Context(), hash, s.Now())
+	if errors.Is(err, store.ErrNotFound) || (err == nil && !auth.LinkHashEqual(l.TokenHash, hash)) {
+		s.linkGone(w, r)
+		return store.Client{}, false
+	}
+	if err != nil {
+		s.linkError(w, r, err)
+		return store.Client{}, false
+	}
+	c, err := s.Store.ClientByID(r.Context(), l.ClientID)
+	if err != nil {
+		s.linkError(w, r, err)
+		return store.Client{}, false
+	}
+	return c, true
+}
+
+func (s *Server) linkGone(w http.ResponseWriter, r *http.Request) {
+	w.Header().Set("Content-Type", "text/html; charset=utf-8")
+	w.WriteHeader(http.StatusNotFound)
+	if err := web.ClientLinkGone().Render(r.Context(), w); err != nil {
+		s.Log.Error("render", "path", "/c/…", "err", err)
+	}
+}
+
+// linkError logs without the token (it is a secret) and answers plainly.
+func (s *Server) linkError(w http.ResponseWriter, r *http.Request, err error) {
+	s.Log.Error("client link", "err", err)
+	http.Error(w, "Something went wrong on our side. Please try again later.", http.StatusInternalServerError)
+}
+
+// linkPlan is a published plan seen from the client's side.
+type linkPlan struct {
+	store.PublishedPlan
+	loc         *time.Location
+	first, last string // plan day dates, YYYY-MM-DD
+}
+
+// linkPlans loads a client's published plans with their zones and spans.
+func (s *Server) linkPlans(r *http.Request, clientID int64) ([]linkPlan, error) {
+	pubs, err := s.Store.PublishedPlans(r.Context(), clientID)
+	if err != nil {
+		return nil, err
+	}
+	var out []linkPlan
+	for _, p := range pubs {
+		days := p.Version.Result.Days
+		if len(days) == 0 {
+			continue
+		}
+		lp := linkPlan{PublishedPlan: p, loc: planZone(p.Version.Result.TimeZone), first: days[0].Date, last: days[0].Date}
+		for _, d := range days {
+			lp.first, lp.last = min(lp.first, d.Date), max(lp.last, d.Date)
+		}
+		out = append(out, lp)
+	}
+	return out, nil
+}
+
+// planZone is the plan's time zone: an IANA name, or the "+01:00" offset
+// form the engine writes when the request named none.
+func planZone(name string) *time.Location {
+	if name == "" {
+		return time.UTC
+	}
+	if loc, err := time.LoadLocation(name); err == nil {
+		return loc
+	}
+	if t, err := time.Parse("-07:00", name); err == nil {
+		_, off := t.Zone()
+		return time.FixedZone(name, off)
+	}
+	return time.UTC
+}
+
+// currentPlan picks the plan the client sees: the published one whose days
+// include today (in its own zone; the latest published when several do),
+// else the next one to start. ok is false when neither exists.
+func currentPlan(plans []linkPlan, now time.Time) (p linkPlan, today string, ok bool) {
+	var covering, upcoming []linkPlan
+	for _, lp := range plans {
+		d := now.In(lp.loc).Format(time.DateOnly)
+		switch {
+		case lp.first <= d && d <= lp.last:
+			covering = append(covering, lp)
+		case lp.first > d:
+			upcoming = append(upcoming, lp)
+		}
+	}
+	if len(covering) > 0 {
+		sort.SliceStable(covering, func(i, j int) bool { return publishedAt(covering[i]).After(publishedAt(covering[j])) })
+		p = covering[0]
+	} else if len(upcoming) > 0 {
+		sort.SliceStable(upcoming, func(i, j int) bool { return upcoming[i].first < upcoming[j].first })
+		p = upcoming[0]
+	} else {
+		return linkPlan{}, "", false
+	}
+	return p, now.In(p.loc).Format(time.DateOnly), true
+}
+
+func publishedAt(p linkPlan) time.Time {
+	if t := p.Version.PublishedAt; t != nil {
+		return *t
+	}
+	return p.Version.CreatedAt
+}
+
+// nextDaysShown is how many coming plan days the phone page lists.
+const nextDaysShown = 4
+
+func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
+	c, ok := s.linkClient(w, r)
+	if !ok {
+		return
+	}
+	plans, err := s.linkPlans(r, c.ID)
+	if err != nil {
+		s.linkError(w, r, err)
+		return
+	}
+	now := s.Now()
+	v := web.ClientDayView{
+		PracticeName: s.PracticeName(r), FirstName: firstName(c.Name), Caution: fuel.Caution,
+		Cautions: splitCautions(c.Cautions), CalendarURL: r.URL.Path + "/plan.ics",
+		DateLabel: now.UTC().Format("Monday 2 January 2006"),
+	}
+	if p, today, ok := currentPlan(plans, now); ok {
+		s.fillDay(r, &v, p, today, now)
+	}
+	w.Header().Set("Content-Type", "text/html; charset=utf-8")
+	if err := web.ClientDayPage(v).Render(r.Context(), w); err != nil {
+		s.Log.Error("render", "path", "/c/…", "err", err)
+	}
+}
+
+// fillDay puts today's part of plan p, and its coming days, into v. Every
+// figure is the stored plan's, only formatted.
+func (s *Server) fillDay(r *http.Request, v *web.ClientDayView, p linkPlan, today string, now time.Time) {
+	plan := p.Version.Result
+	if plan.Caution != "" {
+		v.Caution = plan.Caution
+	}
+	v.DateLabel = now.In(p.loc).Format("Monday 2 January 2006")
+	v.ZoneLabel = p.loc.String()
+	v.PlanTitle = p.Plan.Title
+	for _, d := range plan.Days {
+		switch {
+		case d.Date == today:
+			v.Today = s.todayView(r, p, d)
+		case d.Date > today && len(v.Next) < nextDaysShown:
+			v.Next = append(v.Next, web.ClientDayBrief{DateLabel: dayWords(d.Date), Role: clientRoleWords(d.Role),
+				ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1), Event: d.Role == "event"})
+		}
+	}
+	if v.Today == nil && p.first > today {
+		v.Upcoming = "Your plan starts on " + longDay(p.first) + "."
+	}
+}
+
+func (s *Server) todayView(r *http.Request, p linkPlan, d fuel.Day) *web.ClientToday {
+	plan := p.Version.Result
+	t := &web.ClientToday{Role: clientRoleWords(d.Role), ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1),
+		ProteinG: web.Num(d.ProteinG, 0), FatG: web.Num(d.FatG, 0), EnergyKcal: web.Num(d.EnergyKcal, 0),
+		LowFibre: d.LowFibre, Advice: d.Advice}
+	for i, f := range d.Feeds {
+		fv := web.ClientFeed{Time: f.At.In(p.loc).Format("15:04"), Label: clientFeedLabel(f.Label), ChoG: web.Num(f.ChoG, 0),
+			Suggestion: p.Suggestions[menu.FeedKey("day", d.Date, i)],
+			Event:      f.Label == "pre-event meal" || f.Label == "during event"}
+		if fv.Suggestion == menu.NoFit {
+			fv.Suggestion = ""
+		}
+		if f.ProteinG > 0 {
+			fv.ProteinG = web.Num(f.ProteinG, 0)
+		}
+		t.Feeds = append(t.Feeds, fv)
+	}
+	ev := p.Version.Request.Event
+	if ev == nil || ev.StartsAt.In(p.loc).Format(time.DateOnly) != d.Date {
+		return t
+	}
+	e := &web.ClientEventDay{Name: "Your event", Start: ev.StartsAt.In(p.loc).Format("15:04")}
+	if p.Plan.EventID != nil {
+		if stored, err := s.Store.EventByID(r.Context(), p.Plan.ClientID, *p.Plan.EventID); err == nil {
+			e.Name = stored.Name
+		} else if !errors.Is(err, store.ErrNotFound) {
+			s.Log.Warn("client link event", "plan", p.Plan.ID, "err", err)
+		}
+	}
+	if m := plan.PreEventMeal; m != nil {
+		e.PreMealTime, e.PreMealChoG = m.At.In(p.loc).Format("15:04"), web.Num(m.ChoG, 0)
+	}
+	if de := plan.DuringEvent; de != nil && de.ChoGPerH > 0 {
+		e.DuringGPerH, e.DuringTotalG, e.DuringHours = web.Num(de.ChoGPerH, 0), web.Num(de.TotalChoG, 0), hoursWords(de.DurationMin)
+	}
+	t.Event = e
+	return t
+}
+
+// feedLinkWindow keeps recently ended plans in the calendar feed for a
+// week, so today's entries do not vanish from a phone at midnight.
+const feedLinkWindow = 7 * 24 * time.Hour
+
+func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
+	c, ok := s.linkClient(w, r)
+	if !ok {
+		return
+	}
+	plans, err := s.linkPlans(r, c.ID)
+	if err != nil {
+		s.linkError(w, r, err)
+		return
+	}
+	now := s.Now()
+	cal := sheet.ICSCalendar{ProdID: "-//Larder//Client link//EN", Name: "Fuelling plan · " + firstName(c.Name)}
+	for _, p := range plans {
+		if p.last < now.Add(-feedLinkWindow).In(p.loc).Format(time.DateOnly) {
+			continue
+		}
+		ip := sheet.ICSPlan{PlanID: p.Plan.ID, Version: p.Version.Version, Published: publishedAt(p),
+			Plan: p.Version.Result, Suggestions: withoutNoFit(p.Suggestions)}
+		if ev := p.Version.Request.Event; ev != nil {
+			start := ev.StartsAt
+			ip.EventStart, ip.EventDurationMin, ip.EventName = &start, ev.ExpectedDurationMin, "Event start"
+			if p.Plan.EventID != nil {
+				if stored, err := s.Store.EventByID(r.Context(), c.ID, *p.Plan.EventID); err == nil {
+					ip.EventName = stored.Name
+				}
+			}
+		}
+		cal.Events = append(cal.Events, sheet.ICSPlanEvents(ip)...)
+	}
+	var buf bytes.Buffer
+	if err := sheet.ICSWrite(&buf, cal); err != nil {
+		s.linkError(w, r, err)
+		return
+	}
+	w.Header().Set("Content-Type", "text/calendar; charset=utf-8")
+	w.Header().Set("Content-Disposition", `inline; filename="plan.ics"`)
+	_, _ = w.Write(buf.Bytes())
+}
+
+func withoutNoFit(m map[string]string) map[string]string {
+	out := make(map[string]string, len(m))
+	for k, v := range m {
+		if v != menu.NoFit {
+			out[k] = v
+		}
+	}
+	return out
+}
+
+// firstName is the first word of the client's name: the page greets the
+// client and shows no more of the record than that.
+func firstName(name string) string {
+	if f := strings.Fields(name); len(f) > 0 {
+		return f[0]
+	}
+	return "there"
+}
+
+func clientRoleWords(role string) string {
+	switch role {
+	case "load":
+		return "Carbohydrate loading day"
+	case "taper":
+		return "Taper day"
+	case "event":
+		return "Event day"
+	case "recovery":
+		return "Recovery day"
+	case "repletion":
+		return "Refuelling day"
+	case "training":
+		return "Training day"
+	}
+	if role == "" {
+		return "Plan day"
+	}
+	return strings.ToUpper(role[:1]) + role[1:] + " day"
+}
+
+func clientFeedLabel(label string) string {
+	switch label {
+	case "during event":
+		return "During the event (in all)"
+	case "refuel":
+		return "Refuel"
+	case "":
+		return "Snack"
+	}
+	return strings.ToUpper(label[:1]) + label[1:]
+}
+
+func longDay(date string) string {
+	t, err := time.Parse(time.DateOnly, date)
+	if err != nil {
+		return date
+	}
+	return t.Format("Monday 2 January")
+}
