@@ -21,6 +21,7 @@ func (s *Server) routes() http.Handler {
 	r.Handle("/static/*", http.StripPrefix("/static/", http.FileServerFS(static)))
 	r.Get("/healthz", s.healthz)
 	r.Head("/healthz", s.healthz)
+	s.mountClientLinkRoutes(r) // public: the token in the URL is the only key
 	r.NotFound(s.Sessions.LoadAndSave(s.loadUser(http.HandlerFunc(s.NotFound))).ServeHTTP)
 
 	r.Group(func(r chi.Router) {
@@ -37,6 +38,7 @@ func (s *Server) routes() http.Handler {
 			r.Get("/", func(w http.ResponseWriter, r *http.Request) { http.Redirect(w, r, "/clients", http.StatusFound) })
 			s.mountStaffRoutes(r)
 			s.mountPlanRoutes(r)
+			s.mountLinkRoutes(r)
 
 			r.Group(func(r chi.Router) {
 				r.Use(s.requireAdmin)
