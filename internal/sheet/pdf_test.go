@@ -1,0 +1,278 @@
+package sheet
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	"larder/internal/fuel"
+	"larder/internal/menu"
+)
+
+// example computes one of the example requests of testdata/fuel.
+func example(t *testing.T, name string) (fuel.Request, fuel.Plan) {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join("..", "..", "testdata", "fuel", name))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var req fuel.Request
+	if err := json.Unmarshal(b, &req); err != nil {
+		t.Fatal(err)
+	}
+	plan, err := fuel.Compute(req)
+	if err != nil {
+		t.Fatalf("%s: %v", name, err)
+	}
+	return req, plan
+}
+
+func sheetFor(req fuel.Request, plan fuel.Plan, status string) Sheet {
+	published := time.Date(2027, 4, 1, 9, 30, 0, 0, time.UTC)
+	measured := time.Date(2027, 3, 29, 0, 0, 0, 0, time.UTC)
+	s := Sheet{
+		PracticeName: "Fjordside Sports Nutrition", ClientName: "Tomás Arriaga",
+		ClientCautions: []string{"Coeliac disease – gluten-free foods only", "History of gut upset on gels"},
+		Title:          "Plan for the Harbour Loop – test", KindLabel: "Carbohydrate loading", Protocol: req.Protocol,
+		Version: 2, Status: status, BodyMassKg: req.Athlete.BodyMassKg, BodyMassOn: &measured,
+		Plan: plan, Printed: published, Training: map[string]string{}, Suggestions: map[string]string{},
+	}
+	if status != StatusDraft {
+		s.PublishedAt = &published
+	}
+	if req.Event != nil {
+		s.EventName = "Harbour Loop Marathon"
+		start := req.Event.StartsAt
+		s.EventStart = &start
+		s.EventZone = "Europe/Oslo"
+	}
+	for _, ts := range req.Training {
+		s.Training[ts.Date] = ts.Start + " run " + strconv.FormatFloat(ts.DurationMin, 'f', 0, 64) + " min (" + ts.Intensity + ")"
+	}
+	for _, d := range plan.Days {
+		for i := range d.Feeds {
+			s.Suggestions[menu.FeedKey("day", d.Date, i)] = "2 slices white bread with honey, 1 banana"
+		}
+	}
+	return s
+}
+
+var pageObj = regexp.MustCompile(`/Type /Page\b[^s]`)
+
+// pageCount counts the page objects of a PDF written by fpdf.
+func pageCount(pdf []byte) int { return len(pageObj.FindAll(pdf, -1)) }
+
+// pdfText extracts a PDF's text with pdftotext (poppler-utils), whitespace
+// folded to single spaces; ok is false when pdftotext is not installed.
+func pdfText(t *testing.T, pdf []byte) (string, bool) {
+	t.Helper()
+	bin, err := exec.LookPath("pdftotext")
+	if err != nil {
+		if os.Getenv("LARDER_TEST_REQUIRE_BROWSER") == "1" {
+			t.Fatal("pdftotext (poppler-utils) is required: ", err)
+		}
+		return "", false
+	}
+	path := filepath.Join(t.TempDir(), "sheet.pdf")
+	if err := os.WriteFile(path, pdf, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	// -raw keeps the order the sheet draws in: row by row, cell by cell.
+	out, err := exec.Command(bin, "-raw", "-enc", "UTF-8", path, "-").Output()
+	if err != nil {
+		t.Fatalf("pdftotext: %v", err)
+	}
+	return strings.Join(strings.Fields(string(out)), " "), true
+}
+
+func TestParsePaper(t *testing.T) {
+	for in, want := range map[string]Paper{"": A4, "a4": A4, "A4": A4, "letter": Letter, " Letter ": Letter} {
+		if got, ok := ParsePaper(in); !ok || got != want {
+			t.Errorf("ParsePaper(%q) = %q, %v; want %q", in, got, ok, want)
+		}
+	}
+	for _, in := range []string{"a5", "legal", "letterx"} {
+		if _, ok := ParsePaper(in); ok {
+			t.Errorf("ParsePaper(%q) accepted", in)
+		}
+	}
+}
+
+// A4 is 210 × 297 mm and US Letter 8.5 × 11 in (ISO 216; ANSI/ASME Y14.1):
+// 595.28 × 841.89 and 612 × 792 PostScript points (common practice).
+func TestPaperSizes(t *testing.T) {
+	req, plan := example(t, "marathon-loading.json")
+	for paper, box := range map[Paper]string{A4: "/MediaBox [0 0 595.28 841.89]", Letter: "/MediaBox [0 0 612.00 792.00]"} {
+		pdf, err := Render(sheetFor(req, plan, StatusPublished), paper)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Contains(pdf, []byte(box)) {
+			t.Errorf("%s sheet lacks %s", paper, box)
+		}
+	}
+}
+
+func TestSheetOfEachExample(t *testing.T) {
+	for _, name := range []string{"marathon-loading.json", "cyclist-5h-race.json", "rower-two-sessions.json", "runner-10k-race.json", "training-week.json"} {
+		t.Run(name, func(t *testing.T) {
+			req, plan := example(t, name)
+			for _, paper := range []Paper{A4, Letter} {
+				pdf, err := Render(sheetFor(req, plan, StatusPublished), paper)
+				if err != nil {
+					t.Fatal(err)
+				}
+				if dir := os.Getenv("LARDER_SHEET_OUT"); dir != "" { // to look at them
+					_ = os.WriteFile(filepath.Join(dir, strings.TrimSuffix(name, ".json")+"-"+string(paper)+".pdf"), pdf, 0o644)
+				}
+				if !bytes.HasPrefix(pdf, []byte("%PDF-")) {
+					t.Fatalf("not a PDF: %q", pdf[:min(20, len(pdf))])
+				}
+				// DESIGN.md: one to three pages a clinician can hand over.
+				if n := pageCount(pdf); n < 1 || n > 3 {
+					t.Errorf("%s on %s: %d pages, want 1–3", name, paper, n)
+				}
+				text, ok := pdfText(t, pdf)
+				if !ok {
+					continue
+				}
+				want := []string{"Tomás Arriaga", "Fjordside Sports Nutrition", "Coeliac disease – gluten-free foods only",
+					"History of gut upset on gels", "Findings", "checks within guideline",
+					"page 1 of " + strconv.Itoa(pageCount(pdf))}
+				for _, d := range plan.Days {
+					want = append(want, strconv.FormatFloat(d.ChoGPerKg, 'f', 1, 64))
+				}
+				for _, w := range want {
+					if !strings.Contains(text, w) {
+						t.Errorf("%s on %s: text lacks %q\n%s", name, paper, w, text)
+					}
+				}
+				if n := strings.Count(text, "not medical advice"); n != pageCount(pdf) {
+					t.Errorf("%s: caution printed %d times on %d pages", name, n, pageCount(pdf))
+				}
+				if strings.Contains(text, "DRAFT") {
+					t.Errorf("%s: a published sheet is marked as a draft", name)
+				}
+				for _, f := range plan.Findings {
+					if f.Level != fuel.LevelOK && !strings.Contains(text, levelWord(f.Level)) {
+						t.Errorf("%s: finding %s (%s) not printed", name, f.Code, f.Level)
+					}
+				}
+			}
+		})
+	}
+}
+
+func TestCautionTextWhole(t *testing.T) {
+	req, plan := example(t, "marathon-loading.json")
+	pdf, err := Render(sheetFor(req, plan, StatusPublished), A4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, ok := pdfText(t, pdf)
+	if !ok {
+		t.Skip("pdftotext not installed")
+	}
+	// DESIGN.md, Safety: the caution, whole, on the sheet.
+	if !strings.Contains(text, strings.Join(strings.Fields(fuel.Caution), " ")) {
+		t.Errorf("caution not printed whole\n%s", text)
+	}
+}
+
+func TestDraftWatermark(t *testing.T) {
+	req, plan := example(t, "marathon-loading.json")
+	for status, mark := range map[string]string{StatusDraft: DraftMark, StatusSuperseded: SupersededMark} {
+		pdf, err := Render(sheetFor(req, plan, status), A4)
+		if err != nil {
+			t.Fatal(err)
+		}
+		text, ok := pdfText(t, pdf)
+		if !ok {
+			t.Skip("pdftotext not installed")
+		}
+		// Once across the page (pdftotext gives diagonal text letter by
+		// letter, hence the spaces dropped) and once in the banner, on
+		// every page.
+		compact := strings.ReplaceAll(text, " ", "")
+		if n, pages := strings.Count(compact, strings.ReplaceAll(mark, " ", "")), pageCount(pdf); n != 2*pages {
+			t.Errorf("%s: mark %q printed %d times on %d pages", status, mark, n, pages)
+		}
+	}
+}
+
+func TestNoCautionsNoBox(t *testing.T) {
+	req, plan := example(t, "runner-10k-race.json")
+	s := sheetFor(req, plan, StatusPublished)
+	s.ClientCautions = nil
+	pdf, err := Render(s, A4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, ok := pdfText(t, pdf)
+	if !ok {
+		t.Skip("pdftotext not installed")
+	}
+	if strings.Contains(text, "Recorded caution") {
+		t.Error("a client without recorded cautions got a caution box")
+	}
+}
+
+func TestPlanZone(t *testing.T) {
+	cases := []struct {
+		plan, event, want string
+		offset            int
+	}{
+		{"Europe/Oslo", "", "Europe/Oslo", 3600},
+		{"+02:00", "", "UTC+02:00", 7200},
+		{"", "America/Chicago", "America/Chicago", -6 * 3600},
+		{"Nowhere/City", "", "UTC", 0},
+	}
+	jan := time.Date(2027, 1, 15, 12, 0, 0, 0, time.UTC)
+	for _, c := range cases {
+		loc, name := planZone(Sheet{Plan: fuel.Plan{TimeZone: c.plan}, EventZone: c.event})
+		if _, off := jan.In(loc).Zone(); name != c.want || off != c.offset {
+			t.Errorf("planZone(%q, %q) = %s offset %d; want %s offset %d", c.plan, c.event, name, off, c.want, c.offset)
+		}
+	}
+}
+
+func TestTextOutsideCodePage(t *testing.T) {
+	d, err := newDoc(Sheet{Title: "x"}, A4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// "–" is 0x96 and "é" 0xE9 in Windows-1252; "≈" has no place there and
+	// becomes "~" instead of a stray dot.
+	if got := d.tr("≈ 35 % – café"); got != "~ 35 % \x96 caf\xe9" {
+		t.Errorf("tr = %q", got)
+	}
+}
+
+func BenchmarkLoadingSheet(b *testing.B) {
+	b.ReportAllocs()
+	raw, err := os.ReadFile(filepath.Join("..", "..", "testdata", "fuel", "marathon-loading.json"))
+	if err != nil {
+		b.Fatal(err)
+	}
+	var req fuel.Request
+	if err := json.Unmarshal(raw, &req); err != nil {
+		b.Fatal(err)
+	}
+	plan, err := fuel.Compute(req)
+	if err != nil {
+		b.Fatal(err)
+	}
+	s := sheetFor(req, plan, StatusPublished)
+	for b.Loop() {
+		if _, err := Render(s, A4); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
