@@ -38,6 +38,7 @@ func (s *Server) routes() http.Handler {
 			r.Get("/", func(w http.ResponseWriter, r *http.Request) { http.Redirect(w, r, "/clients", http.StatusFound) })
 			s.mountStaffRoutes(r)
 			s.mountPlanRoutes(r)
+			s.mountSheetRoutes(r)
 			s.mountLinkRoutes(r)
 
 			r.Group(func(r chi.Router) {
