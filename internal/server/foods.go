@@ -50,15 +50,19 @@ type foodForm struct {
 func decodeFood(values url.Values) (store.Food, forms.Form) {
 	var in foodForm
 	f := forms.Decode(values, &in)
-	if f.Has() {
-		return store.Food{}, f
+	// The checks across fields run whenever the figures they need are good,
+	// so that every problem shows at once.
+	good := func(name string, v *float64) bool { return v != nil && f.Err(name) == "" }
+	if good("carbohydrate_g", in.CarbohydrateG) && good("protein_g", in.ProteinG) && good("fat_g", in.FatG) && good("fibre_g", in.FibreG) {
+		if sum := *in.CarbohydrateG + *in.ProteinG + *in.FatG + *in.FibreG; sum > 100 {
+			f.Errors.Add("total", fmt.Sprintf("Carbohydrate, protein, fat and fibre add up to %s g, but 100 g of a food cannot hold more than 100 g of them. Check the figures are per 100 g.", web.Num(sum, 1)))
+		}
 	}
-	if sum := *in.CarbohydrateG + *in.ProteinG + *in.FatG + *in.FibreG; sum > 100 {
-		f.Errors.Add("total", fmt.Sprintf("Carbohydrate, protein, fat and fibre add up to %s g, but 100 g of a food cannot hold more than 100 g of them. Check the figures are per 100 g.", web.Num(sum, 1)))
-	}
-	if est, far := menu.EnergyFarOff(*in.EnergyKcal, *in.CarbohydrateG, *in.ProteinG, *in.FatG); far && !in.EnergyConfirmed {
-		f.Errors.Add("energy_kcal", fmt.Sprintf("Energy of %s kcal is far from the %s kcal that the carbohydrate, protein and fat give (4, 4 and 9 kcal per g). Check it is kcal, not kJ, and per 100 g; if the label really says so, tick the box below.",
-			web.Num(*in.EnergyKcal, 0), web.Num(est, 0)))
+	if good("carbohydrate_g", in.CarbohydrateG) && good("protein_g", in.ProteinG) && good("fat_g", in.FatG) && good("energy_kcal", in.EnergyKcal) {
+		if est, far := menu.EnergyFarOff(*in.EnergyKcal, *in.CarbohydrateG, *in.ProteinG, *in.FatG); far && !in.EnergyConfirmed {
+			f.Errors.Add("energy_kcal", fmt.Sprintf("Energy of %s kcal is far from the %s kcal that the carbohydrate, protein and fat give (4, 4 and 9 kcal per g). Check it is kcal, not kJ, and per 100 g; if the label really says so, tick the box below.",
+				web.Num(*in.EnergyKcal, 0), web.Num(est, 0)))
+		}
 	}
 	if f.Has() {
 		return store.Food{}, f

@@ -134,6 +134,17 @@ func TestFoodsEditWithValidation(t *testing.T) {
 		})
 	}
 
+	t.Run("every problem at once", func(t *testing.T) {
+		v := foodValuesFor(name)
+		v.Set("energy_kcal", "100") // 6.5 g carbohydrate gives 26 kcal (Atwater general factors (FAO 2003 food energy report))
+		v.Set("portion_g", "0")
+		res := admin.post("/foods", v)
+		if res.status != http.StatusUnprocessableEntity {
+			t.Fatalf("status %d", res.status)
+		}
+		res.mustContain(t, "far from the 26 kcal", "Portion weight must be more than 0")
+	})
+
 	t.Run("figures over 100 g", func(t *testing.T) {
 		v := foodValuesFor(name)
 		v.Set("carbohydrate_g", "70")
