@@ -141,6 +141,7 @@ type PlanView struct {
 	DraftURL       string
 	ActionURL      string
 	ReviseURL      string
+	DiscardURL     string
 
 	BodyMass        string
 	MassName        string // form input names of the body figures on a draft

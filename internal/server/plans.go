@@ -39,6 +39,7 @@ func (s *Server) mountPlanPages(r chi.Router) {
 	r.Get("/clients/{clientID}/plans/{planID}/versions/{version}", s.showPlanVersion)
 	r.Post("/clients/{clientID}/plans/{planID}/versions/{version}", s.editPlanVersion)
 	r.Post("/clients/{clientID}/plans/{planID}/revise", s.revisePlan)
+	r.Post("/clients/{clientID}/plans/{planID}/versions/{version}/discard", s.discardDraft)
 }
 
 var planKinds = []web.Option{
@@ -1056,4 +1057,37 @@ func (s *Server) revisePlan(w http.ResponseWriter, r *http.Request) {
 	}
 	s.Flash(r, msg)
 	Redirect(w, r, web.Path("clients", c.ID, "plans", p.ID, "versions", v.Version))
+}
+
+func (s *Server) discardDraft(w http.ResponseWriter, r *http.Request) {
+	c, p, v, versions, ok := s.versionFromURL(w, r)
+	if !ok || !s.ParseForm(w, r) {
+		return
+	}
+	revision, err := strconv.Atoi(r.PostForm.Get("revision"))
+	if err != nil {
+		http.Error(w, "The form is missing its revision; reload the page.", http.StatusBadRequest)
+		return
+	}
+	gone, err := s.Store.DiscardDraft(r.Context(), Actor(r), v.ID, revision)
+	switch {
+	case errors.Is(err, store.ErrStaleRevision):
+		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, overrideValues(v.Request),
+			"Not discarded: someone saved this draft after you opened it. Look at their changes before discarding it.")
+		return
+	case errors.Is(err, store.ErrNotDraft):
+		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, overrideValues(v.Request),
+			"Not discarded: this version is no longer a draft. Published versions are kept.")
+		return
+	case err != nil:
+		s.ServerError(w, r, err)
+		return
+	}
+	if gone {
+		s.Flash(r, "Draft discarded; the plan had no other version, so it is gone.")
+		Redirect(w, r, web.Path("clients", c.ID))
+		return
+	}
+	s.Flash(r, "Draft version "+strconv.Itoa(v.Version)+" discarded. Earlier versions are unchanged.")
+	Redirect(w, r, web.Path("clients", c.ID, "plans", p.ID))
 }

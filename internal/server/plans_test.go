@@ -567,3 +567,37 @@ func TestSimultaneousSavesOneWins(t *testing.T) {
 		t.Fatalf("revision %d after one save from %d", got, v.Revision)
 	}
 }
+
+func TestDiscardDraft(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	cid, pid := loadingPlan(t, a, b)
+	base := "/clients/" + itoa64(cid) + "/plans/" + itoa64(pid)
+	v1 := latestVersion(t, a, pid)
+
+	// A stale page cannot discard.
+	res := b.post(base+"/versions/1/discard", url.Values{"revision": {strconv.Itoa(v1.Revision + 5)}})
+	if res.status != http.StatusConflict {
+		t.Fatalf("stale discard: status %d", res.status)
+	}
+	b.post(base+"/versions/1", url.Values{"revision": {strconv.Itoa(v1.Revision)}, "action": {"publish"}}).mustRedirect(t, base)
+	res = b.post(base+"/versions/1/discard", url.Values{"revision": {strconv.Itoa(v1.Revision + 1)}})
+	if res.status != http.StatusConflict || a.count(`SELECT count(*) FROM plan_versions WHERE plan_id = $1`, pid) != 1 {
+		t.Fatalf("discarding a published version: status %d", res.status)
+	}
+	// Discarding a revision keeps the published version.
+	b.post(base+"/revise", nil).mustRedirect(t, base+"/versions/2")
+	v2 := latestVersion(t, a, pid)
+	b.post(base+"/versions/2/discard", url.Values{"revision": {strconv.Itoa(v2.Revision)}}).mustRedirect(t, base)
+	if vs, _ := a.st.PlanVersions(context.Background(), pid); len(vs) != 1 || vs[0].Status != store.PlanPublished {
+		t.Fatalf("after discarding version 2: %d versions", len(vs))
+	}
+	// Discarding the only version removes the plan.
+	_, other := loadingPlan(t, a, b)
+	ov := latestVersion(t, a, other)
+	b.post("/clients/"+itoa64(cid)+"/plans/"+itoa64(other)+"/versions/1/discard", url.Values{"revision": {strconv.Itoa(ov.Revision)}}).
+		mustRedirect(t, "/clients/"+itoa64(cid))
+	if n := a.count(`SELECT count(*) FROM plans WHERE id = $1`, other); n != 0 {
+		t.Fatal("plan with its only draft discarded still exists")
+	}
+}

@@ -411,3 +411,32 @@ func (s *Store) ListPlans(ctx context.Context, clientID int64) ([]PlanRow, error
 		return pr, err
 	})
 }
+
+// DiscardDraft deletes a draft version, provided the caller saw revision
+// `revision` of it; a plan left without versions is deleted too. It reports
+// whether the plan itself went. Published and superseded versions cannot be
+// discarded (ErrNotDraft).
+func (s *Store) DiscardDraft(ctx context.Context, actor Actor, versionID int64, revision int) (planGone bool, err error) {
+	err = s.inTx(ctx, func(tx pgx.Tx) error {
+		if err := lockDraft(ctx, tx, versionID, revision); err != nil {
+			return err
+		}
+		var planID int64
+		var number int
+		if err := tx.QueryRow(ctx, `DELETE FROM plan_versions WHERE id = $1 RETURNING plan_id, version`, versionID).Scan(&planID, &number); err != nil {
+			return err
+		}
+		var left int
+		if err := tx.QueryRow(ctx, `SELECT count(*) FROM plan_versions WHERE plan_id = $1`, planID).Scan(&left); err != nil {
+			return err
+		}
+		if left == 0 {
+			if _, err := tx.Exec(ctx, `DELETE FROM plans WHERE id = $1`, planID); err != nil {
+				return err
+			}
+			planGone = true
+		}
+		return AuditTx(ctx, tx, actor, "discard", "plan", planID, map[string]any{"version": number, "plan_deleted": planGone})
+	})
+	return planGone, err
+}
