@@ -173,16 +173,27 @@ func candidates(foods []Food, need Need) []Food {
 		}
 		pool = kept
 	}
-	// Rank: carbohydrate-dense foods first (fewer grams to eat), fibre ratio
-	// as a tie-breaker, then name and ID so that the order is deterministic.
+	// Rank by how well a food's portion suits the target: best when about
+	// two portions meet it, so that suggestions are a natural number of
+	// portions whatever the size of the feed; a food whose half portion
+	// already overshoots is no use. Fibre ratio, then name and ID break ties
+	// so that the order is deterministic.
+	tol := Tolerance(need.ChoG)
+	kept := pool[:0:0]
+	for _, f := range pool {
+		if 0.5*choPerPortion(f) <= need.ChoG+tol {
+			kept = append(kept, f)
+		}
+	}
+	pool = kept
+	fit := func(f Food) float64 { return math.Abs(math.Log(2 * choPerPortion(f) / need.ChoG)) }
 	sort.SliceStable(pool, func(i, j int) bool {
 		a, b := pool[i], pool[j]
-		da, db := choPerPortion(a), choPerPortion(b)
 		if need.OnTheMove && a.Liquid != b.Liquid {
 			return a.Liquid
 		}
-		if da != db {
-			return da > db
+		if fa, fb := fit(a), fit(b); fa != fb {
+			return fa < fb
 		}
 		ra, rb := a.FibrePer100/a.ChoPer100, b.FibrePer100/b.ChoPer100
 		if ra != rb {

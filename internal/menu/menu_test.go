@@ -147,7 +147,7 @@ func TestSuggestionsAddUp(t *testing.T) {
 	foods := loadIFCT(t)
 	rng := rand.New(rand.NewSource(4))
 	for i := 0; i < 400; i++ {
-		need := Need{ChoG: 5 + rng.Float64()*245, LowFibre: rng.Intn(2) == 0, OnTheMove: rng.Intn(4) == 0}
+		need := Need{ChoG: 1 + rng.Float64()*249, LowFibre: rng.Intn(2) == 0, OnTheMove: rng.Intn(4) == 0}
 		s, ok := Suggest(foods, need)
 		if !ok {
 			t.Errorf("no suggestion for %+v", need)
