@@ -28,3 +28,14 @@ func loadDemo(t *testing.T, a *app) demo.Result {
 	}
 	return res
 }
+
+func TestHoursWords(t *testing.T) {
+	for _, c := range []struct {
+		min  float64
+		want string
+	}{{45, "45 min"}, {59.6, "1 h 00 min"}, {195, "3 h 15 min"}, {250, "4 h 10 min"}} {
+		if got := hoursWords(c.min); got != c.want {
+			t.Errorf("hoursWords(%v) = %q, want %q", c.min, got, c.want)
+		}
+	}
+}

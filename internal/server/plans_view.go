@@ -2,6 +2,7 @@ package server
 
 import (
 	"fmt"
+	"math"
 	"net/http"
 	"strings"
 	"time"
@@ -245,8 +246,8 @@ func runsOut(km, min *float64) string {
 }
 
 func hoursWords(min float64) string {
-	h := int(min) / 60
-	m := int(min+0.5) % 60
+	total := int(math.Round(min))
+	h, m := total/60, total%60
 	if h == 0 {
 		return fmt.Sprintf("%d min", m)
 	}
