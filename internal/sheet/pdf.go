@@ -132,6 +132,8 @@ type doc struct {
 	zone  string
 	w     float64 // content width
 	limit float64 // lowest y content may reach
+	// headPage is the page whose feed table heads are printed.
+	headPage int
 }
 
 func newDoc(s Sheet, paper Paper) (*doc, error) {
@@ -225,8 +227,10 @@ func (d *doc) need(h float64) bool {
 	return false
 }
 
-func (d *doc) heading(text string) {
-	d.need(14)
+// heading starts a section; keep is how much of what follows (mm) must
+// fit on the same page, so that no heading is left alone at a page's foot.
+func (d *doc) heading(text string, keep float64) {
+	d.need(11 + keep)
 	d.f.Ln(2.5)
 	d.font("B", 11)
 	d.color(colInk)
@@ -469,7 +473,7 @@ func (d *doc) dayTable() {
 	if len(p.Days) == 0 {
 		return
 	}
-	d.heading("Day by day")
+	d.heading("Day by day", 8+9)
 	// Two header lines: what (Carbohydrate spans its two columns), then the unit.
 	cols := []column{
 		{"Date", "", 24, "L"}, {"Training", "", 0, "L"}, {"Load band", "", 21, "L"}, {"g/kg", "Carbohydrate", 16, "R"},
@@ -620,8 +624,13 @@ func (d *doc) eventFigures() {
 		if g.UsualIntakeMuscleGStart != nil {
 			v += " With the usual intake instead of this plan: muscle " + num(*g.UsualIntakeMuscleGStart, 0) + " g."
 		}
-		rows = append(rows, pair{"Expected glycogen at the start", v})
+		label := "Expected glycogen at the start"
+		if p.DuringEvent == nil { // no event: the stores at the end of the plan's last day
+			label = "Expected glycogen at the end"
+		}
+		rows = append(rows, pair{label, v})
 		switch {
+		case p.DuringEvent == nil:
 		case g.RunsOutAtMin == nil && g.RunsOutWithIntakeAtMin == nil:
 			rows = append(rows, pair{"Where stores would run out", "They last the whole event."})
 		default:
@@ -635,11 +644,14 @@ func (d *doc) eventFigures() {
 	if len(rows) == 0 {
 		return
 	}
-	title := "Race day"
-	if p.Kind == fuel.KindLoading {
+	title := "Glycogen stores"
+	switch p.Kind {
+	case fuel.KindLoading:
 		title = "Event day and stores"
+	case fuel.KindRace:
+		title = "Race day"
 	}
-	d.heading(title)
+	d.heading(title, 9)
 	d.pairRows(rows, 46)
 }
 
@@ -670,7 +682,7 @@ func (d *doc) repletion() {
 	if r == nil {
 		return
 	}
-	d.heading("Repletion")
+	d.heading("Repletion", 9)
 	v := num(r.GapH, 1) + " h between the sessions. "
 	if r.Speedy {
 		v += "Speedy refuelling: " + strconv.FormatFloat(r.ChoGPerKgPerH, 'f', 1, 64) + " g/kg/h for the first hours, then back to the day's needs."
@@ -691,10 +703,38 @@ func (d *doc) repletion() {
 		feeds = append(feeds, feedRow{at: fd.At.In(d.loc).Format("Mon 15:04"), label: fd.Label, cho: fd.ChoG, prot: fd.ProteinG,
 			overridden: fd.Overridden, suggestion: sg})
 	}
-	if len(feeds) > 0 {
+	switch {
+	case len(feeds) == 0:
+	case d.inDayFeeds(r.Feeds):
+		d.font("", 8)
+		d.color(colMuted)
+		d.para("The repletion feeds are listed with the day's feeds below.", 3.6)
+		d.color(colInk)
+	default:
 		d.f.Ln(0.5)
+		d.headPage = 0
 		d.feedTable(feeds, 20)
+		d.headPage = 0
 	}
+}
+
+// inDayFeeds reports whether every one of feeds is also among the days'
+// feeds, which the sheet prints anyway.
+func (d *doc) inDayFeeds(feeds []fuel.Feed) bool {
+	for _, x := range feeds {
+		found := false
+		for _, day := range d.s.Plan.Days {
+			for _, y := range day.Feeds {
+				if y.At.Equal(x.At) && y.ChoG == x.ChoG && y.Label == x.Label {
+					found = true
+				}
+			}
+		}
+		if !found {
+			return false
+		}
+	}
+	return true
 }
 
 type feedRow struct {
@@ -710,7 +750,12 @@ func (d *doc) feedTable(rows []feedRow, timeW float64) {
 	labelW, choW, protW := 28.0, 17.0, 14.0
 	sugX := marginX + timeW + labelW + choW + protW + 3
 	sugW := marginX + d.w - sugX
+	// The column heads print once a page: every feed table has the same columns.
 	head := func() {
+		if d.headPage == f.PageNo() {
+			return
+		}
+		d.headPage = f.PageNo()
 		d.font("B", 7)
 		d.color(colMuted)
 		y := f.GetY()
@@ -772,7 +817,7 @@ func (d *doc) feeds() {
 	if !hasFeeds {
 		return
 	}
-	d.heading("Feeds day by day")
+	d.heading("Feeds day by day", 8+5+3.6+2*3.8)
 	d.font("", 7.5)
 	d.color(colMuted)
 	d.para("Times in "+d.zone+". Suggestions are examples from the practice's food list that add up to the feed's carbohydrate; swap for foods you know you tolerate. * set by the dietitian (override).", 3.4)
@@ -826,7 +871,7 @@ func (d *doc) findings() {
 		}
 		shown = append(shown, fd)
 	}
-	d.heading("Findings")
+	d.heading("Findings", 8)
 	f := d.f
 	textX := marginX + 33
 	textW := d.w - 33
