@@ -95,6 +95,16 @@ const (
 	poolSize      = 14  // best-ranked foods considered for combinations
 )
 
+// CarbohydrateFood tells whether carbohydrate gives at least a quarter of a
+// food's energy (4 kcal/g against 4 and 9 for protein and fat): rice, fruit,
+// jaggery and milk do; nuts, paneer and eggs do not, and are no way to meet a
+// carbohydrate target. A threshold of this project's own.
+func CarbohydrateFood(f Food) bool {
+	cho := 4 * f.ChoPer100
+	total := cho + 4*f.ProtPer100 + 9*f.FatPer100
+	return total > 0 && cho >= 0.25*total
+}
+
 // IsLowFibre tells whether a food is low in fibre for the carbohydrate it gives.
 func IsLowFibre(f Food) bool {
 	return f.ChoPer100 > 0 && f.FibrePer100 <= LowFibreRatio*f.ChoPer100
@@ -146,7 +156,7 @@ func candidates(foods []Food, need Need) []Food {
 	var pool, avoided []Food
 	lowFibreCount := 0
 	for _, f := range foods {
-		if !(f.ChoPer100 > 0) || !(f.PortionG > 0) || math.IsNaN(f.FibrePer100) {
+		if !(f.ChoPer100 > 0) || !(f.PortionG > 0) || math.IsNaN(f.FibrePer100) || !CarbohydrateFood(f) {
 			continue
 		}
 		if need.OnTheMove && !f.Liquid && !f.Portable {

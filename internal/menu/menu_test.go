@@ -260,3 +260,31 @@ func TestPreferOnTheMoveFallsBack(t *testing.T) {
 		t.Error("no fallback to the whole list when no drink or portable food fits")
 	}
 }
+
+func TestOnlyCarbohydrateFoodsSuggested(t *testing.T) {
+	foods := loadIFCT(t)
+	byName := map[string]Food{}
+	for _, f := range foods {
+		byName[f.Name] = f
+	}
+	// IFCT 2017 figures (Longvah T et al., Indian Food Composition Tables
+	// 2017): almond H001 3.04 g carbohydrate and 58.49 g fat per 100 g;
+	// cow's milk L002 4.94 g carbohydrate, 3.26 g protein, 4.48 g fat.
+	if CarbohydrateFood(byName["Almond"]) || CarbohydrateFood(byName["Paneer"]) || CarbohydrateFood(byName["Ground nut"]) {
+		t.Error("a fat- or protein-rich food counted as a carbohydrate food")
+	}
+	if !CarbohydrateFood(byName["Milk, whole, Cow"]) || !CarbohydrateFood(byName["Rice, raw, milled"]) {
+		t.Error("milk or rice not counted as a carbohydrate food")
+	}
+	for _, target := range []float64{2, 5, 12, 40} {
+		s, ok := Suggest(foods, Need{ChoG: target})
+		if !ok {
+			t.Fatalf("no suggestion for %v g", target)
+		}
+		for _, it := range s.Items {
+			if !CarbohydrateFood(it.Food) {
+				t.Errorf("%v g: suggested %s", target, it.Food.Name)
+			}
+		}
+	}
+}
