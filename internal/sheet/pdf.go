@@ -146,16 +146,16 @@ func newDoc(s Sheet, paper Paper) (*doc, error) {
 	f.SetMargins(marginX, marginTop, marginX)
 	f.SetAutoPageBreak(true, footerHeight+3)
 	f.AliasNbPages("{nb}")
-	f.SetTitle(s.Title, true)
-	f.SetAuthor(s.PracticeName, true)
+	f.SetTitle(clean(s.Title), true)
+	f.SetAuthor(clean(s.PracticeName), true)
 	f.SetCreator("Larder", true)
-	f.SetSubject("Plan sheet for "+s.ClientName, true)
+	f.SetSubject(clean("Plan sheet for "+s.ClientName), true)
 	cp := f.UnicodeTranslatorFromDescriptor("cp1252")
 	if err := f.Error(); err != nil {
 		return nil, fmt.Errorf("sheet: code page: %w", err)
 	}
 	d := &doc{f: f, s: s, w: pw - 2*marginX, limit: ph - footerHeight - 3}
-	d.tr = func(x string) string { return cp(toCP1252.Replace(x)) }
+	d.tr = func(x string) string { return cp(toCP1252.Replace(clean(x))) }
 	d.loc, d.zone = planZone(s)
 	f.SetHeaderFunc(d.header)
 	f.SetFooterFunc(d.footer)
@@ -169,6 +169,24 @@ var toCP1252 = strings.NewReplacer(
 	"≈", "~", "≤", "<=", "≥", ">=", "→", "->", "←", "<-", "−", "-", "‑", "-",
 	"✓", "", "◆", "", "▲", "", "✖", "", "✎", "", "⚠", "", "τ", "tau", "\u00a0", " ", "\u202f", " ",
 )
+
+// clean makes typed text safe to print: valid UTF-8 (fpdf's metadata
+// writer panics on anything else), tabs as spaces, no other control
+// characters but line breaks.
+func clean(x string) string {
+	x = strings.ToValidUTF8(x, "?")
+	return strings.Map(func(r rune) rune {
+		switch {
+		case r == '\n':
+			return r
+		case r == '\t':
+			return ' '
+		case r < 0x20 || r == 0x7f || r >= 0x80 && r < 0xa0 || r == '\ufeff':
+			return -1
+		}
+		return r
+	}, x)
+}
 
 // planZone is where feed times are shown: the plan's zone (an IANA name, or
 // an offset such as +02:00), else the event's, else UTC.

@@ -17,7 +17,7 @@ import (
 )
 
 // example computes one of the example requests of testdata/fuel.
-func example(t *testing.T, name string) (fuel.Request, fuel.Plan) {
+func example(t testing.TB, name string) (fuel.Request, fuel.Plan) {
 	t.Helper()
 	b, err := os.ReadFile(filepath.Join("..", "..", "testdata", "fuel", name))
 	if err != nil {
@@ -275,4 +275,42 @@ func BenchmarkLoadingSheet(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// FuzzParsePaper: any ?paper= value is either refused or one of the two sizes.
+func FuzzParsePaper(f *testing.F) {
+	for _, s := range []string{"", "a4", "letter", "LETTER", "a5", "\x00", "letter\n"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		p, ok := ParsePaper(s)
+		if ok != (p == A4 || p == Letter) {
+			t.Fatalf("ParsePaper(%q) = %q, %v", s, p, ok)
+		}
+	})
+}
+
+// FuzzSheetText: whatever staff type into a client's name, cautions or a
+// plan title (any UTF-8, long lines, control characters), the sheet renders
+// as a PDF of one to three pages for a short plan.
+func FuzzSheetText(f *testing.F) {
+	f.Add("Tomás Arriaga", "Coeliac disease – gluten-free foods only", "Race ≈ 3 h → finish")
+	f.Add("", "", "")
+	f.Add("\x00\xff\ufeff", "line one\nline two\r\n\ttab", strings.Repeat("W", 400))
+	f.Add("李小龍", "🙂 emoji", "日本語のタイトル")
+	req, plan := example(f, "runner-10k-race.json")
+	f.Fuzz(func(t *testing.T, name, caution, title string) {
+		s := sheetFor(req, plan, StatusPublished)
+		s.ClientName, s.ClientCautions, s.Title = name, []string{caution}, title
+		pdf, err := Render(s, A4)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.HasPrefix(pdf, []byte("%PDF-")) {
+			t.Fatal("not a PDF")
+		}
+		if n := pageCount(pdf); n < 1 || n > 3 {
+			t.Fatalf("%d pages", n)
+		}
+	})
 }
