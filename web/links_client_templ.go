@@ -103,7 +103,7 @@ func clientShell(title string) templ.Component {
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 2, "</title><style>\n\t\t\t\t:root { --ink: #1d232a; --muted: #59636e; --rule: #d5dbe1; --accent: #1f5f8b; --soft: #eef4f8; --caution: #8a4b00; --caution-soft: #fff6e8; }\n\t\t\t\t* { box-sizing: border-box; }\n\t\t\t\thtml { -webkit-text-size-adjust: 100%; }\n\t\t\t\tbody { margin: 0; font: 1.125rem/1.5 system-ui, -apple-system, \"Segoe UI\", Roboto, sans-serif; color: var(--ink); background: #fff; }\n\t\t\t\tmain { max-width: 34rem; margin: 0 auto; padding: 1rem 1rem 2.5rem; }\n\t\t\t\th1 { font-size: 1.75rem; line-height: 1.2; margin: .25rem 0 .25rem; }\n\t\t\t\th2 { font-size: 1.3rem; margin: 1.75rem 0 .5rem; }\n\t\t\t\t.date { font-size: 1.15rem; margin: 0 0 .25rem; }\n\t\t\t\t.muted { color: var(--muted); font-size: 1rem; }\n\t\t\t\t.practice { color: var(--muted); font-size: .95rem; margin: 0; }\n\t\t\t\t.role { display: inline-block; background: var(--soft); color: var(--accent); border-radius: .3rem; padding: .1rem .55rem; font-weight: 600; font-size: 1rem; }\n\t\t\t\t.targets { display: grid; grid-template-columns: 1fr 1fr; gap: .6rem; margin: .75rem 0; padding: 0; list-style: none; }\n\t\t\t\t.targets li { border: 1px solid var(--rule); border-radius: .5rem; padding: .6rem .75rem; }\n\t\t\t\t.targets li.main { grid-column: 1 / -1; border: 2px solid var(--accent); }\n\t\t\t\t.targets .what { display: block; font-size: .95rem; color: var(--muted); }\n\t\t\t\t.targets .value { display: block; font-size: 1.6rem; font-weight: 700; line-height: 1.2; }\n\t\t\t\t.targets li.main .value { font-size: 2.2rem; }\n\t\t\t\t.targets .per { font-size: 1rem; font-weight: 400; color: var(--muted); }\n\t\t\t\tol.feeds { list-style: none; margin: 0; padding: 0; }\n\t\t\t\tol.feeds li { border-top: 1px solid var(--rule); padding: .7rem 0; }\n\t\t\t\tol.feeds li.event { background: var(--soft); border-radius: .4rem; padding: .7rem .6rem; }\n\t\t\t\t.feed-head { display: flex; gap: .75rem; align-items: baseline; flex-wrap: wrap; }\n\t\t\t\t.time { font-size: 1.45rem; font-weight: 700; font-variant-numeric: tabular-nums; min-width: 4ch; }\n\t\t\t\t.label { font-weight: 600; }\n\t\t\t\t.grams { display: block; font-size: 1.2rem; }\n\t\t\t\t.sugg { display: block; color: var(--muted); font-size: 1rem; }\n\t\t\t\t.event-box { border: 2px solid var(--accent); border-radius: .5rem; padding: .75rem; margin: 1rem 0; }\n\t\t\t\t.event-box p { margin: .3rem 0; }\n\t\t\t\t.big { font-size: 1.4rem; font-weight: 700; }\n\t\t\t\tul.next { list-style: none; padding: 0; margin: 0; }\n\t\t\t\tul.next li { display: flex; justify-content: space-between; gap: .75rem; border-top: 1px solid var(--rule); padding: .5rem 0; }\n\t\t\t\tul.next .n { font-weight: 600; white-space: nowrap; }\n\t\t\t\t.note { background: var(--caution-soft); border: 1px solid var(--caution); border-left-width: 6px; border-radius: .3rem; padding: .6rem .8rem; margin: 1rem 0; font-size: 1rem; }\n\t\t\t\t.note strong { display: block; }\n\t\t\t\t.safety { font-size: .95rem; color: var(--muted); border-top: 1px solid var(--rule); margin-top: 2rem; padding-top: .75rem; }\n\t\t\t\ta { color: var(--accent); }\n\t\t\t\t.nothing { font-size: 1.35rem; font-weight: 600; margin: 1rem 0 .25rem; }\n\t\t\t</style></head><body><main>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 2, "</title><style>\n\t\t\t\t:root { --ink: #1d232a; --muted: #59636e; --rule: #d5dbe1; --accent: #1f5f8b; --soft: #eef4f8; --caution: #8a4b00; --caution-soft: #fff6e8; }\n\t\t\t\t* { box-sizing: border-box; }\n\t\t\t\thtml { -webkit-text-size-adjust: 100%; }\n\t\t\t\tbody { margin: 0; font: 1.125rem/1.5 system-ui, -apple-system, \"Segoe UI\", Roboto, sans-serif; color: var(--ink); background: #fff; }\n\t\t\t\tmain { max-width: 34rem; margin: 0 auto; padding: 1rem 1rem 2.5rem; }\n\t\t\t\th1 { font-size: 1.75rem; line-height: 1.2; margin: .25rem 0 .25rem; }\n\t\t\t\th2 { font-size: 1.3rem; margin: 1.75rem 0 .5rem; }\n\t\t\t\t.date { font-size: 1.15rem; margin: 0 0 .25rem; }\n\t\t\t\t.muted { color: var(--muted); font-size: 1rem; }\n\t\t\t\t.practice { color: var(--muted); font-size: .95rem; margin: 0; }\n\t\t\t\t.role { display: inline-block; background: var(--soft); color: var(--accent); border-radius: .3rem; padding: .1rem .55rem; font-weight: 600; font-size: 1rem; }\n\t\t\t\t.targets { display: grid; grid-template-columns: 1fr 1fr; gap: .6rem; margin: .75rem 0; padding: 0; list-style: none; }\n\t\t\t\t.targets li { border: 1px solid var(--rule); border-radius: .5rem; padding: .6rem .75rem; }\n\t\t\t\t.targets li.main { grid-column: 1 / -1; border: 2px solid var(--accent); }\n\t\t\t\t.targets .what { display: block; font-size: .95rem; color: var(--muted); }\n\t\t\t\t.targets .value { display: block; font-size: 1.6rem; font-weight: 700; line-height: 1.2; }\n\t\t\t\t.targets li.main .value { font-size: 2.2rem; }\n\t\t\t\t.targets .per { display: block; font-size: 1rem; font-weight: 400; color: var(--muted); }\n\t\t\t\tol.feeds { list-style: none; margin: 0; padding: 0; }\n\t\t\t\tol.feeds li { border-top: 1px solid var(--rule); padding: .7rem 0; }\n\t\t\t\tol.feeds li.event { background: var(--soft); border-radius: .4rem; padding: .7rem .6rem; }\n\t\t\t\t.feed-head { display: flex; gap: .75rem; align-items: baseline; flex-wrap: wrap; }\n\t\t\t\t.time { font-size: 1.45rem; font-weight: 700; font-variant-numeric: tabular-nums; min-width: 4ch; }\n\t\t\t\t.label { font-weight: 600; }\n\t\t\t\t.grams { display: block; font-size: 1.2rem; }\n\t\t\t\t.sugg { display: block; color: var(--muted); font-size: 1rem; }\n\t\t\t\t.event-box { border: 2px solid var(--accent); border-radius: .5rem; padding: .75rem; margin: 1rem 0; }\n\t\t\t\t.event-box p { margin: .3rem 0; }\n\t\t\t\t.big { font-size: 1.4rem; font-weight: 700; }\n\t\t\t\tul.next { list-style: none; padding: 0; margin: 0; }\n\t\t\t\tul.next li { display: flex; justify-content: space-between; align-items: baseline; gap: .75rem; border-top: 1px solid var(--rule); padding: .5rem 0; }\n\t\t\t\tul.next .d { font-weight: 600; }\n\t\t\t\tul.next .r { display: block; color: var(--muted); font-size: 1rem; }\n\t\t\t\tul.next .n { font-weight: 600; white-space: nowrap; text-align: right; }\n\t\t\t\tul.next .n .muted { display: block; font-weight: 400; }\n\t\t\t\t.note { background: var(--caution-soft); border: 1px solid var(--caution); border-left-width: 6px; border-radius: .3rem; padding: .6rem .8rem; margin: 1rem 0; font-size: 1rem; }\n\t\t\t\t.note strong { display: block; }\n\t\t\t\t.safety { font-size: .95rem; color: var(--muted); border-top: 1px solid var(--rule); margin-top: 2rem; padding-top: .75rem; }\n\t\t\t\ta { color: var(--accent); }\n\t\t\t\t.nothing { font-size: 1.35rem; font-weight: 600; margin: 1rem 0 .25rem; }\n\t\t\t</style></head><body><main>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
@@ -157,7 +157,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var5 string
 				templ_7745c5c3_Var5, templ_7745c5c3_Err = templ.JoinStringErrs(v.PracticeName)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 127, Col: 39}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 130, Col: 39}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var5))
 				if templ_7745c5c3_Err != nil {
@@ -175,7 +175,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 			var templ_7745c5c3_Var6 string
 			templ_7745c5c3_Var6, templ_7745c5c3_Err = templ.JoinStringErrs(v.FirstName)
 			if templ_7745c5c3_Err != nil {
-				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 129, Col: 25}
+				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 132, Col: 25}
 			}
 			_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var6))
 			if templ_7745c5c3_Err != nil {
@@ -188,7 +188,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 			var templ_7745c5c3_Var7 string
 			templ_7745c5c3_Var7, templ_7745c5c3_Err = templ.JoinStringErrs(v.DateLabel)
 			if templ_7745c5c3_Err != nil {
-				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 130, Col: 31}
+				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 133, Col: 31}
 			}
 			_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var7))
 			if templ_7745c5c3_Err != nil {
@@ -206,7 +206,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var8 string
 				templ_7745c5c3_Var8, templ_7745c5c3_Err = templ.JoinStringErrs(v.ZoneLabel)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 132, Col: 46}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 135, Col: 46}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var8))
 				if templ_7745c5c3_Err != nil {
@@ -225,7 +225,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var9 string
 				templ_7745c5c3_Var9, templ_7745c5c3_Err = templ.JoinStringErrs(c)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 136, Col: 37}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 139, Col: 37}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var9))
 				if templ_7745c5c3_Err != nil {
@@ -248,7 +248,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var10 string
 				templ_7745c5c3_Var10, templ_7745c5c3_Err = templ.JoinStringErrs(t.Role)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 141, Col: 33}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 144, Col: 33}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var10))
 				if templ_7745c5c3_Err != nil {
@@ -261,33 +261,33 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var11 string
 				templ_7745c5c3_Var11, templ_7745c5c3_Err = templ.JoinStringErrs(t.ChoG)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 146, Col: 33}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 149, Col: 33}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var11))
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 16, " g <span class=\"per\">(")
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 16, " g</span> <span class=\"per\">")
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
 				var templ_7745c5c3_Var12 string
 				templ_7745c5c3_Var12, templ_7745c5c3_Err = templ.JoinStringErrs(t.ChoGPerKg)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 146, Col: 70}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 150, Col: 36}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var12))
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 17, " g per kg body mass)</span></span></li><li><span class=\"what\">Protein</span><span class=\"value\">")
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 17, " g per kg body mass</span></li><li><span class=\"what\">Protein</span><span class=\"value\">")
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
 				var templ_7745c5c3_Var13 string
 				templ_7745c5c3_Var13, templ_7745c5c3_Err = templ.JoinStringErrs(t.ProteinG)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 148, Col: 73}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 152, Col: 73}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var13))
 				if templ_7745c5c3_Err != nil {
@@ -300,7 +300,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var14 string
 				templ_7745c5c3_Var14, templ_7745c5c3_Err = templ.JoinStringErrs(t.FatG)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 149, Col: 65}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 153, Col: 65}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var14))
 				if templ_7745c5c3_Err != nil {
@@ -313,7 +313,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var15 string
 				templ_7745c5c3_Var15, templ_7745c5c3_Err = templ.JoinStringErrs(t.EnergyKcal)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 150, Col: 74}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 154, Col: 74}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var15))
 				if templ_7745c5c3_Err != nil {
@@ -337,7 +337,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var16 string
 					templ_7745c5c3_Var16, templ_7745c5c3_Err = templ.JoinStringErrs(a)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 156, Col: 10}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 160, Col: 10}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var16))
 					if templ_7745c5c3_Err != nil {
@@ -360,7 +360,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var17 string
 					templ_7745c5c3_Var17, templ_7745c5c3_Err = templ.JoinStringErrs(e.Name)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 160, Col: 28}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 164, Col: 28}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var17))
 					if templ_7745c5c3_Err != nil {
@@ -373,7 +373,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var18 string
 					templ_7745c5c3_Var18, templ_7745c5c3_Err = templ.JoinStringErrs(e.Start)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 160, Col: 47}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 164, Col: 47}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var18))
 					if templ_7745c5c3_Err != nil {
@@ -391,7 +391,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var19 string
 						templ_7745c5c3_Var19, templ_7745c5c3_Err = templ.JoinStringErrs(e.PreMealTime)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 162, Col: 50}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 166, Col: 50}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var19))
 						if templ_7745c5c3_Err != nil {
@@ -404,7 +404,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var20 string
 						templ_7745c5c3_Var20, templ_7745c5c3_Err = templ.JoinStringErrs(e.PreMealChoG)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 162, Col: 78}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 166, Col: 78}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var20))
 						if templ_7745c5c3_Err != nil {
@@ -423,7 +423,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var21 string
 						templ_7745c5c3_Var21, templ_7745c5c3_Err = templ.JoinStringErrs(e.DuringGPerH)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 165, Col: 50}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 169, Col: 50}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var21))
 						if templ_7745c5c3_Err != nil {
@@ -436,7 +436,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var22 string
 						templ_7745c5c3_Var22, templ_7745c5c3_Err = templ.JoinStringErrs(e.DuringTotalG)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 165, Col: 103}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 169, Col: 103}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var22))
 						if templ_7745c5c3_Err != nil {
@@ -449,7 +449,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var23 string
 						templ_7745c5c3_Var23, templ_7745c5c3_Err = templ.JoinStringErrs(e.DuringHours)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 165, Col: 128}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 169, Col: 128}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var23))
 						if templ_7745c5c3_Err != nil {
@@ -470,7 +470,17 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					return templ_7745c5c3_Err
 				}
 				if len(t.Feeds) > 0 {
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 37, "<h2>Feeding times</h2><ol class=\"feeds\" id=\"feeds\">")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 37, "<h2>Feeding times</h2>")
+					if templ_7745c5c3_Err != nil {
+						return templ_7745c5c3_Err
+					}
+					if len(v.Cautions) > 0 {
+						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 38, "<p class=\"muted\" id=\"food-ideas-note\">The food ideas are examples only. Swap them for foods that suit your health note and that you know you tolerate.</p>")
+						if templ_7745c5c3_Err != nil {
+							return templ_7745c5c3_Err
+						}
+					}
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 39, " <ol class=\"feeds\" id=\"feeds\">")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
@@ -479,7 +489,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 							templ_7745c5c3_ElementWriter := templ_7745c5c3_Buffer
 							templ_7745c5c3_Buffer := templ.GetBuffer()
 							var templ_7745c5c3_ElementScripts []templ.ComponentScript
-							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 38, "<li class=\"")
+							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 40, "<li class=\"")
 							if templ_7745c5c3_Err != nil {
 								return templ_7745c5c3_Err
 							}
@@ -497,7 +507,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 							if templ_7745c5c3_Err != nil {
 								return templ_7745c5c3_Err
 							}
-							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 39, "\"")
+							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 41, "\"")
 							if templ_7745c5c3_Err != nil {
 								return templ_7745c5c3_Err
 							}
@@ -511,240 +521,240 @@ func ClientDayPage(v ClientDayView) templ.Component {
 							}
 							templ.ReleaseBuffer(templ_7745c5c3_Buffer)
 						}
-						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 40, "><div class=\"feed-head\"><span class=\"time\">")
+						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 42, "><div class=\"feed-head\"><span class=\"time\">")
 						if templ_7745c5c3_Err != nil {
 							return templ_7745c5c3_Err
 						}
 						var templ_7745c5c3_Var26 string
 						templ_7745c5c3_Var26, templ_7745c5c3_Err = templ.JoinStringErrs(f.Time)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 175, Col: 35}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 182, Col: 35}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var26))
 						if templ_7745c5c3_Err != nil {
 							return templ_7745c5c3_Err
 						}
-						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 41, "</span> <span class=\"label\">")
+						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 43, "</span> <span class=\"label\">")
 						if templ_7745c5c3_Err != nil {
 							return templ_7745c5c3_Err
 						}
 						var templ_7745c5c3_Var27 string
 						templ_7745c5c3_Var27, templ_7745c5c3_Err = templ.JoinStringErrs(f.Label)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 176, Col: 37}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 183, Col: 37}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var27))
 						if templ_7745c5c3_Err != nil {
 							return templ_7745c5c3_Err
 						}
-						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 42, "</span></div><span class=\"grams\">")
+						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 44, "</span></div><span class=\"grams\">")
 						if templ_7745c5c3_Err != nil {
 							return templ_7745c5c3_Err
 						}
 						var templ_7745c5c3_Var28 string
 						templ_7745c5c3_Var28, templ_7745c5c3_Err = templ.JoinStringErrs(f.ChoG)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 179, Col: 16}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 186, Col: 16}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var28))
 						if templ_7745c5c3_Err != nil {
 							return templ_7745c5c3_Err
 						}
-						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 43, " g carbohydrate ")
+						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 45, " g carbohydrate ")
 						if templ_7745c5c3_Err != nil {
 							return templ_7745c5c3_Err
 						}
 						if f.ProteinG != "" {
-							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 44, "· ")
+							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 46, "· ")
 							if templ_7745c5c3_Err != nil {
 								return templ_7745c5c3_Err
 							}
 							var templ_7745c5c3_Var29 string
 							templ_7745c5c3_Var29, templ_7745c5c3_Err = templ.JoinStringErrs(f.ProteinG)
 							if templ_7745c5c3_Err != nil {
-								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 181, Col: 24}
+								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 188, Col: 24}
 							}
 							_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var29))
 							if templ_7745c5c3_Err != nil {
 								return templ_7745c5c3_Err
 							}
-							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 45, " g protein")
+							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 47, " g protein")
 							if templ_7745c5c3_Err != nil {
 								return templ_7745c5c3_Err
 							}
 						}
-						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 46, "</span> ")
+						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 48, "</span> ")
 						if templ_7745c5c3_Err != nil {
 							return templ_7745c5c3_Err
 						}
 						if f.Suggestion != "" {
-							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 47, "<span class=\"sugg\">For example: ")
+							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 49, "<span class=\"sugg\">For example: ")
 							if templ_7745c5c3_Err != nil {
 								return templ_7745c5c3_Err
 							}
 							var templ_7745c5c3_Var30 string
 							templ_7745c5c3_Var30, templ_7745c5c3_Err = templ.JoinStringErrs(f.Suggestion)
 							if templ_7745c5c3_Err != nil {
-								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 185, Col: 54}
+								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 192, Col: 54}
 							}
 							_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var30))
 							if templ_7745c5c3_Err != nil {
 								return templ_7745c5c3_Err
 							}
-							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 48, "</span>")
+							templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 50, "</span>")
 							if templ_7745c5c3_Err != nil {
 								return templ_7745c5c3_Err
 							}
 						}
-						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 49, "</li>")
+						templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 51, "</li>")
 						if templ_7745c5c3_Err != nil {
 							return templ_7745c5c3_Err
 						}
 					}
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 50, "</ol>")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 52, "</ol>")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
 				}
 			} else {
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 51, "<p class=\"nothing\" id=\"nothing-today\">Nothing planned for today</p>")
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 53, "<p class=\"nothing\" id=\"nothing-today\">Nothing planned for today</p>")
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
 				if v.Upcoming != "" {
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 52, "<p>")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 54, "<p>")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
 					var templ_7745c5c3_Var31 string
 					templ_7745c5c3_Var31, templ_7745c5c3_Err = templ.JoinStringErrs(v.Upcoming)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 194, Col: 19}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 201, Col: 19}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var31))
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 53, "</p>")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 55, "</p>")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
 				} else {
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 54, "<p>There is no plan for the coming days. When your dietitian publishes one, it will appear here, on this same link.</p>")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 56, "<p>There is no plan for the coming days. When your dietitian publishes one, it will appear here, on this same link.</p>")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
 				}
 			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 55, " ")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 57, " ")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
 			if len(v.Next) > 0 {
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 56, "<h2>Coming days</h2><ul class=\"next\" id=\"next-days\">")
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 58, "<h2>Coming days</h2><ul class=\"next\" id=\"next-days\">")
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
 				for _, d := range v.Next {
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 57, "<li><span>")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 59, "<li><span><span class=\"d\">")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
 					var templ_7745c5c3_Var32 string
 					templ_7745c5c3_Var32, templ_7745c5c3_Err = templ.JoinStringErrs(d.DateLabel)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 205, Col: 20}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 212, Col: 36}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var32))
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 58, " <span class=\"muted\">· ")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 60, "</span> <span class=\"r\">")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
 					var templ_7745c5c3_Var33 string
 					templ_7745c5c3_Var33, templ_7745c5c3_Err = templ.JoinStringErrs(d.Role)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 206, Col: 38}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 213, Col: 31}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var33))
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 59, "</span></span> <span class=\"n\">")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 61, "</span></span> <span class=\"n\">")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
 					var templ_7745c5c3_Var34 string
 					templ_7745c5c3_Var34, templ_7745c5c3_Err = templ.JoinStringErrs(d.ChoG)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 208, Col: 30}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 215, Col: 30}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var34))
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 60, " g <span class=\"muted\">(")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 62, " g carbohydrate <span class=\"muted\">")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
 					var templ_7745c5c3_Var35 string
 					templ_7745c5c3_Var35, templ_7745c5c3_Err = templ.JoinStringErrs(d.ChoGPerKg)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 208, Col: 69}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 215, Col: 81}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var35))
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
-					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 61, " g/kg)</span></span></li>")
+					templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 63, " g per kg</span></span></li>")
 					if templ_7745c5c3_Err != nil {
 						return templ_7745c5c3_Err
 					}
 				}
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 62, "</ul>")
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 64, "</ul>")
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
 			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 63, " ")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 65, " ")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
 			if v.CalendarURL != "" {
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 64, "<p><a href=\"")
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 66, "<p><a href=\"")
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
 				var templ_7745c5c3_Var36 string
 				templ_7745c5c3_Var36, templ_7745c5c3_Err = templruntime.NewAttributeExpression(templ.SafeURL(v.CalendarURL)).ResolveURL(ctx)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 214, Col: 44}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 221, Col: 44}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ_7745c5c3_Var36)
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
-				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 65, "\">Add the feeding times to your calendar</a></p>")
+				templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 67, "\">Add the feeding times to your calendar</a></p>")
 				if templ_7745c5c3_Err != nil {
 					return templ_7745c5c3_Err
 				}
 			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 66, " <p class=\"safety\" id=\"safety\"><strong>Please note.</strong> ")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 68, " <p class=\"safety\" id=\"safety\"><strong>Please note.</strong> ")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
 			var templ_7745c5c3_Var37 string
 			templ_7745c5c3_Var37, templ_7745c5c3_Err = templ.JoinStringErrs(v.Caution)
 			if templ_7745c5c3_Err != nil {
-				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 216, Col: 73}
+				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 223, Col: 73}
 			}
 			_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var37))
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 67, "</p>")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 69, "</p>")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
@@ -789,7 +799,7 @@ func ClientLinkGone() templ.Component {
 				}()
 			}
 			ctx = templ.InitializeContext(ctx)
-			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 68, "<h1>Link not valid</h1><p>This link is no longer valid; ask your dietitian for a new one.</p>")
+			templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 70, "<h1>Link not valid</h1><p>This link is no longer valid; ask your dietitian for a new one.</p>")
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}

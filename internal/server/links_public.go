@@ -204,7 +204,7 @@ func (s *Server) fillDay(r *http.Request, v *web.ClientDayView, p linkPlan, toda
 		case d.Date == today:
 			v.Today = s.todayView(r, p, d)
 		case d.Date > today && len(v.Next) < nextDaysShown:
-			v.Next = append(v.Next, web.ClientDayBrief{DateLabel: dayWords(d.Date), Role: clientRoleWords(d.Role),
+			v.Next = append(v.Next, web.ClientDayBrief{DateLabel: dayWords(d.Date), Role: clientRoleWords(d),
 				ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1), Event: d.Role == "event"})
 		}
 	}
@@ -215,9 +215,15 @@ func (s *Server) fillDay(r *http.Request, v *web.ClientDayView, p linkPlan, toda
 
 func (s *Server) todayView(r *http.Request, p linkPlan, d fuel.Day) *web.ClientToday {
 	plan := p.Version.Result
-	t := &web.ClientToday{Role: clientRoleWords(d.Role), ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1),
+	t := &web.ClientToday{Role: clientRoleWords(d), ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1),
 		ProteinG: web.Num(d.ProteinG, 0), FatG: web.Num(d.FatG, 0), EnergyKcal: web.Num(d.EnergyKcal, 0),
 		LowFibre: d.LowFibre, Advice: d.Advice}
+	// The engine's advice usually says it already; say it once.
+	for _, a := range d.Advice {
+		if strings.Contains(strings.ToLower(a), "fibre") {
+			t.LowFibre = false
+		}
+	}
 	for i, f := range d.Feeds {
 		fv := web.ClientFeed{Time: f.At.In(p.loc).Format("15:04"), Label: clientFeedLabel(f.Label), ChoG: web.Num(f.ChoG, 0),
 			Suggestion: p.Suggestions[menu.FeedKey("day", d.Date, i)],
@@ -274,6 +280,9 @@ func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
 		}
 		ip := sheet.ICSPlan{PlanID: p.Plan.ID, Version: p.Version.Version, Published: publishedAt(p),
 			Plan: p.Version.Result, Suggestions: withoutNoFit(p.Suggestions)}
+		if strings.TrimSpace(c.Cautions) != "" {
+			ip.FoodNote = "The food ideas are examples only. Swap them for foods that suit your health note and that you know you tolerate."
+		}
 		if ev := p.Version.Request.Event; ev != nil {
 			start := ev.StartsAt
 			ip.EventStart, ip.EventDurationMin, ip.EventName = &start, ev.ExpectedDurationMin, "Event start"
@@ -314,7 +323,11 @@ func firstName(name string) string {
 	return "there"
 }
 
-func clientRoleWords(role string) string {
+func clientRoleWords(d fuel.Day) string {
+	role := d.Role
+	if role == "training" && d.LoadBand == "rest" {
+		return "Rest day"
+	}
 	switch role {
 	case "load":
 		return "Carbohydrate loading day"

@@ -181,6 +181,9 @@ type ICSPlan struct {
 	Plan      fuel.Plan
 	// Suggestions are the stored food suggestions by menu.FeedKey.
 	Suggestions map[string]string
+	// FoodNote, when set, follows each food suggestion (for a client with
+	// a recorded caution: the ideas are examples only).
+	FoodNote string
 	// The event the plan leads to, if any: its name, start and duration.
 	EventName        string
 	EventStart       *time.Time
@@ -218,6 +221,9 @@ func ICSPlanEvents(p ICSPlan) []ICSEvent {
 			var desc []string
 			if sg := p.Suggestions[menu.FeedKey("day", d.Date, i)]; sg != "" {
 				desc = append(desc, "For example: "+sg)
+				if p.FoodNote != "" {
+					desc = append(desc, p.FoodNote)
+				}
 			}
 			if d.LowFibre {
 				desc = append(desc, "Choose low-fibre foods today.")
