@@ -285,49 +285,10 @@ func (s *Server) createPlan(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	var in planStartForm
-	f := forms.Decode(r.PostForm, &in)
+	pi, f := decodePlanStart(r.PostForm, c, events)
+	in := pi.form
 	refuse := func() {
 		s.renderPlanStart(w, r, http.StatusUnprocessableEntity, c, events, f)
-	}
-	// The kind's own needs are checked even when a field already failed, so
-	// that every problem shows at once.
-	pi := planInputs{client: c, form: in}
-	if in.EventID > 0 {
-		for i := range events {
-			if events[i].ID == int64(in.EventID) {
-				pi.event = &events[i]
-			}
-		}
-		if pi.event == nil {
-			f.Errors.Add("event_id", "Choose one of this client’s events.")
-		}
-	}
-	switch in.Kind {
-	case fuel.KindLoading, fuel.KindRace:
-		if pi.event == nil {
-			f.Errors.Add("event_id", "A "+strings.ToLower(kindLabel(in.Kind))+" plan needs the event it leads to. Add the event on the client’s page first if it is missing.")
-		}
-		if in.Kind == fuel.KindLoading && in.Protocol == "" {
-			f.Errors.Add("protocol", "Choose a loading protocol.")
-		}
-	case fuel.KindRepletion:
-		if in.SessionEnd == "" {
-			f.Errors.Add("session_end", "A repletion plan needs the end of the session.")
-		}
-		if in.NextStart == "" {
-			f.Errors.Add("next_start", "A repletion plan needs the start of the next session.")
-		}
-		if in.TimeZone == "" && f.Err("time_zone") == "" {
-			f.Errors.Add("time_zone", "A repletion plan needs the time zone the athlete is in.")
-		}
-	case fuel.KindWeek:
-		if in.StartDate == nil && f.Err("start_date") == "" {
-			f.Errors.Add("start_date", "A training-week plan needs its first day.")
-		}
-		if in.Days < 1 && f.Err("days") == "" {
-			f.Errors.Add("days", "A training-week plan needs at least one day.")
-		}
 	}
 	if f.Has() {
 		refuse()
@@ -393,6 +354,53 @@ func defaultTitle(in planStartForm, e *store.Event) string {
 		return "Training week from " + web.Date(*in.StartDate)
 	}
 	return kindLabel(in.Kind)
+}
+
+// decodePlanStart reads and checks the start-a-plan form for a client with
+// these events. The kind's own needs are checked even when a field already
+// failed, so that every problem shows at once; the inputs are usable only
+// when the form has no errors.
+func decodePlanStart(values url.Values, c store.Client, events []store.Event) (planInputs, forms.Form) {
+	var in planStartForm
+	f := forms.Decode(values, &in)
+	pi := planInputs{client: c, form: in}
+	if in.EventID > 0 {
+		for i := range events {
+			if events[i].ID == int64(in.EventID) {
+				pi.event = &events[i]
+			}
+		}
+		if pi.event == nil {
+			f.Errors.Add("event_id", "Choose one of this client’s events.")
+		}
+	}
+	switch in.Kind {
+	case fuel.KindLoading, fuel.KindRace:
+		if pi.event == nil {
+			f.Errors.Add("event_id", "A "+strings.ToLower(kindLabel(in.Kind))+" plan needs the event it leads to. Add the event on the client’s page first if it is missing.")
+		}
+		if in.Kind == fuel.KindLoading && in.Protocol == "" {
+			f.Errors.Add("protocol", "Choose a loading protocol.")
+		}
+	case fuel.KindRepletion:
+		if in.SessionEnd == "" {
+			f.Errors.Add("session_end", "A repletion plan needs the end of the session.")
+		}
+		if in.NextStart == "" {
+			f.Errors.Add("next_start", "A repletion plan needs the start of the next session.")
+		}
+		if in.TimeZone == "" && f.Err("time_zone") == "" {
+			f.Errors.Add("time_zone", "A repletion plan needs the time zone the athlete is in.")
+		}
+	case fuel.KindWeek:
+		if in.StartDate == nil && f.Err("start_date") == "" {
+			f.Errors.Add("start_date", "A training-week plan needs its first day.")
+		}
+		if in.Days < 1 && f.Err("days") == "" {
+			f.Errors.Add("days", "A training-week plan needs at least one day.")
+		}
+	}
+	return pi, f
 }
 
 // trainingFor loads the sessions a plan reads: two weeks before its first

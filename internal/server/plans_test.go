@@ -601,3 +601,33 @@ func TestDiscardDraft(t *testing.T) {
 		t.Fatal("plan with its only draft discarded still exists")
 	}
 }
+
+// FuzzPlanStart: the start-a-plan form never panics, and what it accepts
+// builds a request the engine either computes or refuses with field errors.
+func FuzzPlanStart(f *testing.F) {
+	f.Add("loading", "1", "two-day", "58", "19", "167", "5", "", "", "", "", "7")
+	f.Add("repletion", "0", "", "70", "", "", "5", "2027-03-02T09:30", "2027-03-02T15:30", "Europe/London", "", "7")
+	f.Add("week", "0", "", "1e9", "x", "-1", "0", "", "", "Mars/Olympus", "2027-02-30", "99")
+	h := 167.0
+	km := 42.195
+	client := store.Client{ID: 1, Name: "Fuzz", Sex: store.SexFemale, HeightCm: &h}
+	events := []store.Event{{ID: 1, ClientID: 1, Name: "Test marathon", StartsAt: testNow.AddDate(0, 1, 0), TimeZone: "Europe/Oslo",
+		Modality: "run", DistanceKm: &km, ExpectedDurationMin: 215, Days: 1, Priority: "A"}}
+	f.Fuzz(func(t *testing.T, kind, event, protocol, mass, fat, height, occasions, end, next, zone, start, days string) {
+		v := url.Values{"kind": {kind}, "event_id": {event}, "protocol": {protocol}, "body_mass_kg": {mass}, "body_fat_pct": {fat},
+			"height_cm": {height}, "eating_occasions": {occasions}, "session_end": {end}, "next_start": {next},
+			"time_zone": {zone}, "start_date": {start}, "days": {days}, "taper_days": {"7"}}
+		pi, form := decodePlanStart(v, client, events)
+		if form.Has() {
+			return
+		}
+		req, err := buildRequest(pi)
+		if err == nil {
+			_, err = fuel.Compute(req)
+		}
+		var ve fuel.ValidationError
+		if err != nil && !errors.As(err, &ve) {
+			t.Fatalf("accepted form gave a non-field error: %v", err)
+		}
+	})
+}
