@@ -102,6 +102,11 @@ func (s *Server) loadUser(next http.Handler) http.Handler {
 func (s *Server) requireUser(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		if CurrentUser(r) == nil {
+			if strings.HasPrefix(r.URL.Path, "/api/") {
+				// Scripts get a status they can act on, not a sign-in page.
+				writeJSON(w, http.StatusUnauthorized, map[string]string{"error": "sign in first: POST /signin with email and password, then send the session cookie"})
+				return
+			}
 			next := r.URL.RequestURI()
 			if r.Method != http.MethodGet {
 				next = "/"

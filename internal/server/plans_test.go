@@ -445,8 +445,8 @@ func TestComputeAPI(t *testing.T) {
 	}
 	anon := a.browser()
 	r, _ := http.NewRequest(http.MethodPost, a.srv.URL+"/api/v1/compute", strings.NewReader(good))
-	if res := anon.do(r); res.status == http.StatusOK {
-		t.Fatal("the API answered an anonymous caller")
+	if res := anon.do(r); res.status != http.StatusUnauthorized || !strings.Contains(res.body, "sign in first") {
+		t.Fatalf("anonymous API call: status %d %q, want 401 saying to sign in", res.status, res.body)
 	}
 }
 
