@@ -25,6 +25,7 @@ type pdfResponse struct {
 	status      int
 	contentType string
 	location    string
+	disposition string
 	body        []byte
 }
 
@@ -36,7 +37,8 @@ func (b *browser) getPDF(path string) pdfResponse {
 	}
 	defer resp.Body.Close()
 	body, _ := io.ReadAll(resp.Body)
-	return pdfResponse{status: resp.StatusCode, contentType: resp.Header.Get("Content-Type"), location: resp.Header.Get("Location"), body: body}
+	return pdfResponse{status: resp.StatusCode, contentType: resp.Header.Get("Content-Type"), location: resp.Header.Get("Location"),
+		disposition: resp.Header.Get("Content-Disposition"), body: body}
 }
 
 var sheetPageObj = regexp.MustCompile(`/Type /Page\b[^s]`)
@@ -116,6 +118,10 @@ func TestPlanSheet(t *testing.T) {
 	// The draft prints by its version, marked on every page.
 	res = b.getPDF(base + "/versions/1/sheet.pdf")
 	res.mustPDF(t)
+	// An ASCII file name (accents folded) that says it is a draft.
+	if !regexp.MustCompile(`^inline; filename="plan-sheet-ines-tomas-rios-x-[0-9-]+-v1-DRAFT\.pdf"$`).MatchString(res.disposition) {
+		t.Errorf("draft sheet Content-Disposition = %q", res.disposition)
+	}
 	if text, ok := sheetText(t, res.body); ok {
 		pages := sheetPages(res.body)
 		if n := strings.Count(text, sheet.DraftMark+":"); n != pages {
