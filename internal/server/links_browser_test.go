@@ -151,6 +151,17 @@ func TestBrowserClientLinkOnPhone(t *testing.T) {
 	fitsPhone(t, ctx, "race-day page")
 	phoneShot(t, ctx, "link-02-race-day")
 
+	// After the plan: nothing for today.
+	s3 := New(Config{Store: a.st, SessionCleanup: -1, Now: func() time.Time { return time.Date(2027, 3, 20, 8, 0, 0, 0, time.UTC) }})
+	defer s3.Close()
+	hs3 := httptest.NewServer(s3)
+	defer hs3.Close()
+	if err := chromedp.Do(ctx, chromedp.Navigate(hs3.URL+"/c/"+token), chromedp.WaitVisible(chromedp.ID("nothing-today"))); err != nil {
+		t.Fatalf("after the plan: %v", err)
+	}
+	fitsPhone(t, ctx, "nothing-today page")
+	phoneShot(t, ctx, "link-03-nothing-today")
+
 	links, _ := a.st.ClientLinks(context.Background(), c.ID)
 	b.post("/clients/"+itoa(c.ID)+"/links/"+itoa(links[0].ID)+"/revoke", nil).mustRedirect(t, "/clients/")
 	err = chromedp.Do(ctx, chromedp.Navigate(a.srv.URL+"/c/"+token), chromedp.WaitVisible(chromedp.CSS("h1")))
@@ -161,5 +172,5 @@ func TestBrowserClientLinkOnPhone(t *testing.T) {
 		t.Errorf("revoked link page = %q", got)
 	}
 	fitsPhone(t, ctx, "refusal page")
-	phoneShot(t, ctx, "link-03-gone")
+	phoneShot(t, ctx, "link-04-gone")
 }

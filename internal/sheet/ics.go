@@ -50,7 +50,9 @@ func ICSWrite(w io.Writer, c ICSCalendar) error {
 	line("VERSION", "2.0")
 	line("PRODID", ICSEscapeText(c.ProdID))
 	line("CALSCALE", "GREGORIAN")
-	line("METHOD", "PUBLISH")
+	// No METHOD: the feed is a plain published calendar, so DTSTAMP means
+	// when each entry was last revised (RFC 5545 3.8.7.2), here the
+	// plan version's publication.
 	if c.Name != "" {
 		line("X-WR-CALNAME", ICSEscapeText(c.Name))
 	}
