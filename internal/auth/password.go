@@ -1,6 +1,6 @@
 // Package auth owns staff authentication: password hashing (Argon2id in a
 // PHC-style string) and the session manager whose sessions live in
-// PostgreSQL. Client links belong here too when they arrive.
+// PostgreSQL, and the tokens of client links (only their SHA-256 is stored).
 package auth
 
 import (
