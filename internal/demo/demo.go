@@ -73,6 +73,9 @@ func Run(ctx context.Context, st *store.Store, password string) (Result, error) 
 			store.SettingPracticeName, PracticeName); err != nil {
 			return err
 		}
+		if err := l.foods(); err != nil {
+			return fmt.Errorf("demo foods: %w", err)
+		}
 		for _, a := range athletes() {
 			if err := l.athlete(a); err != nil {
 				return fmt.Errorf("demo athlete %s: %w", a.key, err)

@@ -17,7 +17,7 @@ func TestMain(m *testing.M) { os.Exit(testdb.Main(m)) }
 func counts(t *testing.T, st *store.Store) map[string]int {
 	t.Helper()
 	out := map[string]int{}
-	for _, table := range []string{"users", "clients", "body_mass", "training_sessions", "events", "audit_log", "settings"} {
+	for _, table := range []string{"users", "clients", "body_mass", "training_sessions", "events", "audit_log", "settings", "foods"} {
 		var n int
 		if err := st.Pool.QueryRow(context.Background(), "SELECT count(*) FROM "+table).Scan(&n); err != nil {
 			t.Fatal(err)
@@ -126,6 +126,36 @@ func TestDemoContents(t *testing.T) {
 	if err := st.Pool.QueryRow(ctx, `SELECT count(*) FROM (SELECT on_date FROM training_sessions WHERE client_id = $1
 		GROUP BY on_date HAVING count(*) >= 2) d`, res.IDs.Clients["rower"]).Scan(&twice); err != nil || twice < 20 {
 		t.Fatalf("rower double days = %d, %v", twice, err)
+	}
+
+	// The practice's own sports foods are there, marked as entered from the
+	// label, and each one's energy agrees with its macronutrients by the
+	// Atwater general factors (FAO 2003 food energy report): 4, 4, 9 kcal/g.
+	var drinks, portable int
+	rows, err := st.Pool.Query(ctx, `SELECT name, carbohydrate_g::float8, protein_g::float8, fat_g::float8, energy_kcal::float8, liquid, portable
+		FROM foods WHERE source = 'label'`)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for rows.Next() {
+		var name string
+		var cho, prot, fat, kcal float64
+		var liquid, port bool
+		if err := rows.Scan(&name, &cho, &prot, &fat, &kcal, &liquid, &port); err != nil {
+			t.Fatal(err)
+		}
+		if atwater := 4*cho + 4*prot + 9*fat; kcal < atwater-3 || kcal > atwater+3 {
+			t.Errorf("%s: %g kcal/100 g, Atwater sum %g", name, kcal, atwater)
+		}
+		if liquid {
+			drinks++
+		}
+		if port {
+			portable++
+		}
+	}
+	if drinks == 0 || portable < 3 {
+		t.Errorf("practice foods: %d drinks, %d portable; in-event feeds need both", drinks, portable)
 	}
 
 	// One client has a recorded diabetes caution.
