@@ -103,13 +103,15 @@ func (s *Store) RevokeClientLink(ctx context.Context, actor Actor, clientID, id 
 }
 
 // UseClientLink finds the link whose token hashes to hash and that is
-// neither revoked nor expired at now, and records now as its last use. Any
-// other case (unknown, expired, revoked) is ErrNotFound alike, so callers
+// neither revoked nor expired at now, of a client who is not archived, and
+// records now as its last use. Any other case (unknown, expired, revoked,
+// archived client) is ErrNotFound alike, so callers
 // cannot tell them apart and neither can the person holding the link.
 func (s *Store) UseClientLink(ctx context.Context, hash []byte, now time.Time) (ClientLink, error) {
 	var l ClientLink
 	err := s.Pool.QueryRow(ctx, `UPDATE client_links l SET last_used_at = $2
-		FROM (SELECT id FROM client_links WHERE token_hash = $1 AND revoked_at IS NULL AND expires_at > $2) AS hit
+		FROM (SELECT k.id FROM client_links k JOIN clients c ON c.id = k.client_id
+			WHERE k.token_hash = $1 AND k.revoked_at IS NULL AND k.expires_at > $2 AND c.archived_at IS NULL) AS hit
 		WHERE l.id = hit.id
 		RETURNING l.id, l.client_id, l.token_hash, l.label, l.created_by, '', l.created_at, l.expires_at, l.revoked_at, l.last_used_at`,
 		hash, now).Scan(linkDest(&l)...)

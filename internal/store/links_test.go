@@ -136,3 +136,34 @@ func TestPublishedPlansLeaveOutDrafts(t *testing.T) {
 		t.Fatalf("suggestions: %v", got[0].Suggestions)
 	}
 }
+
+// Archiving a client stops their links at once; unarchiving brings an
+// unexpired, unrevoked link back.
+func TestClientLinkStopsForArchivedClient(t *testing.T) {
+	ctx := context.Background()
+	st := store.New(testdb.Pool(t))
+	c := store.Client{Name: uniq("Archived link"), Sex: store.SexMale}
+	if err := st.CreateClient(ctx, store.System, &c); err != nil {
+		t.Fatal(err)
+	}
+	now := time.Now()
+	l := store.ClientLink{ClientID: c.ID, TokenHash: linkHash(uniq("arch")), CreatedAt: now, ExpiresAt: now.AddDate(0, 0, 30)}
+	if err := st.CreateClientLink(ctx, store.System, &l); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := st.UseClientLink(ctx, l.TokenHash, now); err != nil {
+		t.Fatalf("active client's link: %v", err)
+	}
+	if err := st.ArchiveClient(ctx, store.System, c.ID); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := st.UseClientLink(ctx, l.TokenHash, now); !errors.Is(err, store.ErrNotFound) {
+		t.Fatalf("archived client's link still works: %v", err)
+	}
+	if err := st.UnarchiveClient(ctx, store.System, c.ID); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := st.UseClientLink(ctx, l.TokenHash, now); err != nil {
+		t.Fatalf("unarchived client's link: %v", err)
+	}
+}
