@@ -64,6 +64,7 @@ type planner struct {
 	buf          []byte   // message buffer of find
 	startDensity float64  // working-muscle glycogen at the start line, mmol/kg
 	repWinH      float64  // speedy refuelling window, hours
+	occNotes     []occasionNote
 }
 
 // Compute builds the plan a request asks for. Bad input yields a
@@ -272,30 +273,28 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	d.ExerciseEnergyKcal = &exKcal
 	macros(&d, mass, p.body.FFMKg, exKcal, dp.loadDay)
 
-	// Ordinary eating occasions, moved out of training and dropped in
-	// blocked windows.
-	sched := scheduleFor(occ)
-	n := len(dp.fixed) + len(sched)
+	// Ordinary eating occasions. The day's eating occasions count all its
+	// feeds, the protocol's included: the in-event fuelling counts as one,
+	// and so does a run of speedy refuelling feeds. The ordinary meals fill
+	// what is left, away from training and from the blocked windows. A day
+	// cannot have fewer occasions than the protocol fixes.
+	asked := occ
+	proto := protocolOccasions(dp.fixed)
+	occ = max(occ, proto)
+	var slots [16]placedSlot
+	nw := p.ordinarySlots(dp, sess, occ-proto, &slots)
+	if explicit := p.req.EatingOccasions > 0 || (ov != nil && ov.EatingOccasions != nil); explicit {
+		p.noteOccasions(d.Date, asked, proto+nw, dp.fixed)
+	}
+	n := len(dp.fixed) + nw
 	feeds := make([]Feed, 0, n+1)
 	feeds = append(feeds, dp.fixed...)
 	var weights [16]float64
 	var idx [16]int
-	nw := 0
-	for _, sl := range sched {
-		at := clockOn(dp.date, sl.hhmm)
-		for _, s := range sess {
-			end := s.start.Add(time.Duration(s.durMin * float64(time.Minute)))
-			if !at.Before(s.start.Add(-30*time.Minute)) && at.Before(end) {
-				at = end
-			}
-		}
-		if blockedAt(dp.blocked, at) || nw >= len(weights) {
-			continue
-		}
-		weights[nw] = sl.weight
-		idx[nw] = len(feeds)
-		nw++
-		feeds = append(feeds, Feed{At: at, Label: sl.label})
+	for i := 0; i < nw; i++ {
+		weights[i] = slots[i].weight
+		idx[i] = len(feeds)
+		feeds = append(feeds, Feed{At: slots[i].at, Label: slots[i].label})
 	}
 	restCho := d.ChoG - fixedCho
 	restProt := math.Max(0, d.ProteinG-fixedProt)
@@ -346,6 +345,138 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 		d.Advice = []string{}
 	}
 	return d
+}
+
+// placedSlot is an ordinary eating occasion placed on a day.
+type placedSlot struct {
+	at     time.Time
+	label  string
+	weight float64
+}
+
+// maxOccasions is the largest schedule of ordinary eating occasions.
+const maxOccasions = 10
+
+// ordinarySlots places want ordinary eating occasions on a day: the
+// default schedule's slots, moved to the end of a session they fall in
+// (or 30 min before it) and dropped in blocked windows. When blocked slots
+// leave too few, a denser schedule is tried; when there are more than
+// wanted, the lightest (snacks, the latest first) go. It returns how many
+// were placed (fewer than want only when the day has no room).
+func (p *planner) ordinarySlots(dp *dayPlan, sess []sessionInfo, want int, out *[16]placedSlot) int {
+	if want <= 0 {
+		return 0
+	}
+	n := 0
+	for k := min(want, maxOccasions); k <= maxOccasions; k++ {
+		n = 0
+		for _, sl := range scheduleFor(k) {
+			at := clockOn(dp.date, sl.hhmm)
+			for _, s := range sess {
+				end := s.start.Add(time.Duration(s.durMin * float64(time.Minute)))
+				if !at.Before(s.start.Add(-30*time.Minute)) && at.Before(end) {
+					at = end
+				}
+			}
+			if blockedAt(dp.blocked, at) || n >= len(out) || (n > 0 && out[n-1].at.Equal(at)) {
+				continue
+			}
+			out[n] = placedSlot{at, sl.label, sl.weight}
+			n++
+		}
+		if n >= want {
+			break
+		}
+	}
+	for n > want {
+		drop := n - 1
+		for i := n - 1; i >= 0; i-- {
+			if out[i].weight < out[drop].weight {
+				drop = i
+			}
+		}
+		copy(out[drop:n], out[drop+1:n])
+		n--
+	}
+	return n
+}
+
+// protocolOccasions is how many eating occasions a day's protocol feeds
+// make: each is one, except that a run of refuelling feeds is one.
+func protocolOccasions(fixed []Feed) int {
+	n, refuel := 0, false
+	for _, f := range fixed {
+		if f.Label == labelRefuel {
+			refuel = true
+			continue
+		}
+		n++
+	}
+	if refuel {
+		n++
+	}
+	return n
+}
+
+// fixedKinds names the protocol feeds of a day in plain words.
+func fixedKinds(fixed []Feed) string {
+	var pre, during, rec, refuel int
+	for _, f := range fixed {
+		switch f.Label {
+		case labelPreEvent:
+			pre++
+		case labelDuring:
+			during++
+		case labelRecovery:
+			rec++
+		case labelRefuel:
+			refuel++
+		}
+	}
+	var b []byte
+	add := func(n int, one, many string) {
+		if n == 0 {
+			return
+		}
+		if len(b) > 0 {
+			b = append(b, ", "...)
+		}
+		if n == 1 {
+			b = append(b, one...)
+		} else {
+			b = appendf(b, "%d "+many, n)
+		}
+	}
+	add(pre, "the pre-event meal", "pre-event meals")
+	add(during, "the in-event fuelling", "in-event fuellings")
+	add(rec, "a recovery feed", "recovery feeds")
+	if refuel > 0 {
+		refuel = 1 // one occasion however many feeds
+	}
+	add(refuel, "the speedy refuelling", "")
+	return string(b)
+}
+
+// occasionNote is how a day's eating occasions differ from those asked.
+type occasionNote struct {
+	date              string
+	asked, got, fixed int
+	kinds             string
+}
+
+// noteOccasions records (replacing an earlier build of the same day) when
+// a day could not have the eating occasions asked for; finish reports it.
+func (p *planner) noteOccasions(date string, asked, got int, fixed []Feed) {
+	for i := range p.occNotes {
+		if p.occNotes[i].date == date {
+			p.occNotes = append(p.occNotes[:i], p.occNotes[i+1:]...)
+			break
+		}
+	}
+	if asked == got {
+		return
+	}
+	p.occNotes = append(p.occNotes, occasionNote{date, asked, got, protocolOccasions(fixed), fixedKinds(fixed)})
 }
 
 // ceil1 rounds up to one decimal (tolerating float noise).

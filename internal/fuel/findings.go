@@ -221,6 +221,19 @@ func (p *planner) checkDay(d *Day) {
 				d.ChoGPerKg, gWomenBM.Min, gWomenFFM.Min)
 		}
 	}
+	for _, n := range p.occNotes {
+		switch {
+		case n.date != d.Date:
+		case n.got > n.asked:
+			p.find("eating-occasions", LevelNote, subj, SrcACSM,
+				"%d eating occasions were asked for on %s, but the day needs at least %d for %s, so it has %d.",
+				n.asked, d.Date, n.fixed, n.kinds, n.got)
+		default:
+			p.find("eating-occasions", LevelNote, subj, SrcCommon,
+				"%d eating occasions were asked for on %s, but only %d fit around the training and the protocol's feeds.",
+				n.asked, d.Date, n.got)
+		}
+	}
 	prot := math.Round(d.ProteinG/mass*10) / 10
 	if inRange(d.ProteinG/mass, gProteinDaily.Min, gProteinDaily.Max) {
 		p.find("protein-day", LevelOK, subj, SrcACSM, "Protein %g g (%g g/kg) is inside %g–%g g/kg/day.",

@@ -1,0 +1,98 @@
+package fuel
+
+import (
+	"strings"
+	"testing"
+)
+
+func dayOf(t *testing.T, p Plan, date string) Day {
+	t.Helper()
+	for _, d := range p.Days {
+		if d.Date == date {
+			return d
+		}
+	}
+	t.Fatalf("no day %s", date)
+	return Day{}
+}
+
+func labelCount(d Day, label string) int {
+	n := 0
+	for _, f := range d.Feeds {
+		if f.Label == label {
+			n++
+		}
+	}
+	return n
+}
+
+func TestEatingOccasionsOverrideOnEveryDayKind(t *testing.T) {
+	// The marathon example: 2027-04-14 taper, 2027-04-16 load, 2027-04-18
+	// event, 2027-04-19 recovery. Four eating occasions asked for on each.
+	req := loadRequest(t, "marathon-loading.json")
+	four := 4
+	for _, date := range []string{"2027-04-14", "2027-04-16", "2027-04-18", "2027-04-19"} {
+		req.Overrides = append(req.Overrides, DayOverride{Date: date, EatingOccasions: &four})
+	}
+	p := mustCompute(t, req)
+	for _, date := range []string{"2027-04-14", "2027-04-16", "2027-04-18", "2027-04-19"} {
+		d := dayOf(t, p, date)
+		if len(d.Feeds) != 4 {
+			t.Errorf("%s (%s): %d feeds for 4 eating occasions asked", date, d.Role, len(d.Feeds))
+		}
+		if !d.Overridden {
+			t.Errorf("%s: not marked overridden", date)
+		}
+	}
+	ev := dayOf(t, p, "2027-04-18")
+	// ACSM/AND/DC 2016: the pre-event meal (1–4 g/kg, 1–4 h before) and the
+	// in-event fuelling stay among the four.
+	if labelCount(ev, labelPreEvent) != 1 || labelCount(ev, labelDuring) != 1 || labelCount(ev, labelRecovery) != 1 {
+		t.Errorf("event day feeds lost a protocol feed: %+v", ev.Feeds)
+	}
+	if pm := p.PreEventMeal; pm == nil || pm.HoursBefore < 1 || pm.HoursBefore > 4 {
+		t.Errorf("pre-event meal %+v not 1–4 h before", pm)
+	}
+	for _, f := range p.Findings {
+		if f.Code == "eating-occasions" {
+			t.Errorf("unexpected finding: %s", f.Message)
+		}
+	}
+}
+
+func TestEatingOccasionsBelowTheEventDayMinimum(t *testing.T) {
+	// Two asked for on the event day: it needs the pre-event meal, the
+	// in-event fuelling (ACSM/AND/DC 2016: 30–60 g/h to 2.5 h, up to 90
+	// beyond) and the recovery feed, so it keeps three and says why.
+	req := loadRequest(t, "marathon-loading.json")
+	two := 2
+	req.Overrides = append(req.Overrides, DayOverride{Date: "2027-04-18", EatingOccasions: &two})
+	p := mustCompute(t, req)
+	ev := dayOf(t, p, "2027-04-18")
+	if len(ev.Feeds) != 3 {
+		t.Errorf("event day has %d feeds, want the 3 protocol feeds", len(ev.Feeds))
+	}
+	f := oneFinding(t, p, "eating-occasions", "day:2027-04-18")
+	if f.Level != LevelNote || !strings.Contains(f.Message, "2 eating occasions") || !strings.Contains(f.Message, "pre-event meal") ||
+		!strings.Contains(f.Message, "in-event fuelling") || !strings.Contains(f.Message, "has 3") {
+		t.Errorf("finding %+v", f)
+	}
+}
+
+func TestRequestEatingOccasionsCountEveryFeed(t *testing.T) {
+	// A hard 90-min session gets a recovery feed (ACSM/AND/DC 2016: about
+	// 0.3 g/kg protein after key sessions); with 4 eating occasions a day
+	// the recovery feed is one of the four.
+	req := Request{Kind: KindWeek, Athlete: Athlete{Sex: "male", BodyMassKg: 70, HeightCm: ptr(178.0)},
+		StartDate: "2027-03-01", Days: 2, EatingOccasions: 4,
+		Training: []TrainingSession{{Date: "2027-03-01", Start: "17:00", DurationMin: 90, Modality: "run", Intensity: "hard"}}}
+	p := mustCompute(t, req)
+	for _, d := range p.Days {
+		if len(d.Feeds) != 4 {
+			t.Errorf("%s: %d feeds for 4 eating occasions", d.Date, len(d.Feeds))
+		}
+	}
+	if labelCount(p.Days[0], labelRecovery) != 1 {
+		t.Errorf("training day lost its recovery feed: %+v", p.Days[0].Feeds)
+	}
+}
