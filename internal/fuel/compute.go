@@ -65,6 +65,8 @@ type planner struct {
 	startDensity float64  // working-muscle glycogen at the start line, mmol/kg
 	repWinH      float64  // speedy refuelling window, hours
 	occNotes     []occasionNote
+	start        simState // startState, once computed
+	haveStart    bool
 }
 
 // Compute builds the plan a request asks for. Bad input yields a
@@ -924,10 +926,33 @@ func (p *planner) week() {
 		p.plan.Glycogen.MuscleGStart, p.plan.Glycogen.LiverGStart)
 }
 
-// startState is the assumed state at the start of a simulation: typical
-// muscle glycogen density, liver half full after a night.
+// startState is the assumed state at midnight before the first day of a
+// simulation: typical muscle glycogen density, and the liver and gut as a
+// usual day of a trained athlete leaves them (the moderate band's lower
+// end, 5 g/kg, over the default eating occasions): the fed liver of the
+// evening (100–120 g at 70 kg, common practice) a few hours into the
+// night's fast, the last of the evening meal still being absorbed.
+// Computed once per plan.
 func (p *planner) startState() simState {
-	return simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: 0.5 * p.sb.liverCapG}.since(24)
+	if p.haveStart {
+		return p.start
+	}
+	s := simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: p.sb.liverCapG}.since(24)
+	sched := scheduleFor(p.occasions)
+	var w, g [16]float64
+	var in [16]intake
+	ns := min(len(sched), len(w))
+	for i := 0; i < ns; i++ {
+		w[i] = sched[i].weight
+	}
+	split(gBandModerate.Min*p.body.MassKg, w[:ns], g[:ns])
+	for i := 0; i < ns; i++ {
+		in[i] = intake{at: int64(sched[i].hhmm) * 60, g: g[i]}
+	}
+	s = p.sb.simulate(s, 0, 24*3600, nil, in[:ns], nil, 3600, time.UTC)
+	s.Dw, s.Do = gModelTypical.Min, gModelTypical.Min
+	p.start, p.haveStart = s.since(24), true
+	return p.start
 }
 
 // exercises lists the training sessions in [from, to) as simulation bouts.

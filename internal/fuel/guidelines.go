@@ -136,7 +136,10 @@ var Guidelines = []Guideline{
 	{"model.working.row", "working muscle share of skeletal muscle, rowing and cross-country skiing", 0.85, 0.85, "share", SrcModel},
 	{"model.working.triathlon", "working muscle share of skeletal muscle, triathlon", 0.75, 0.75, "share", SrcModel},
 	{"model.other-muscle-rate", "synthesis in muscle that did not exercise, as a share of the working muscle's rested rate (supercompensation is local to exercised muscle)", 0.25, 0.25, "share", SrcModel},
-	{"model.liver-glycogenolysis", "share of fasting glucose output from liver glycogen (the rest from gluconeogenesis): the liver gives up half its capacity per 10 h of fasting", 0.5, 0.5, "share", SrcCommon},
+	{"liver.overnight-fall", "a 10–12 h overnight fast typically lowers liver glycogen by roughly a third to a half (the model's fasting liver gives up half its capacity over the 8 h after the evening meal is absorbed, gluconeogenesis supplying the rest of its glucose output)", 1.0 / 3, 0.5, "share of fed liver glycogen", SrcCommon},
+	{"liver.overnight-hours", "the overnight fast of that fall", 10, 12, "h", SrcCommon},
+	{"model.liver-floor", "below a fifth of its capacity the liver gives up glycogen ever more slowly, in proportion to what is left, so it does not run dry in ordinary exercise", 0.2, 0.2, "share of liver capacity", SrcModel},
+	{"model.gluconeogenesis", "glucose the liver makes from lactate, glycerol and amino acids during exercise, sparing its glycogen", 0.1, 0.1, "g/kg/h", SrcModel},
 	{"model.daily-muscle", "share of uncovered resting and daily-living carbohydrate use drawn from muscle glycogen (the rest from fat)", 0.3, 0.3, "share", SrcModel},
 	{"model.liver-share", "share of absorbed carbohydrate (after resting use) the liver takes first", 0.3, 0.3, "share", SrcModel},
 	{"fat.upper", "fat share of energy used at most when filling an energy target", 0.35, 0.35, "share of energy", SrcCommon},
@@ -252,7 +255,10 @@ var (
 	gRestOx              = guideline("model.rest-cho-ox")
 	gLiverShare          = guideline("model.liver-share")
 	gDailyMuscle         = guideline("model.daily-muscle")
-	gLiverGlycogenolysis = guideline("model.liver-glycogenolysis")
+	gOvernightFall       = guideline("liver.overnight-fall")
+	gOvernightHours      = guideline("liver.overnight-hours")
+	gLiverFloor          = guideline("model.liver-floor")
+	gGluconeogenesis     = guideline("model.gluconeogenesis")
 	gFatUpper            = guideline("fat.upper")
 	gOtherRate           = guideline("model.other-muscle-rate")
 	gResynthPeak         = guideline("model.resynthesis-peak")

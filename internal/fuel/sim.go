@@ -19,9 +19,16 @@ import (
 //     that use first, then muscle synthesis what it can, the liver what is
 //     left. When fasted,
 //     the liver (the main source of blood glucose for 8–12 h after a meal,
-//     common practice) gives up glycogen at half of its capacity per 10 h,
-//     gluconeogenesis the other half; muscle covers 30% of what is still
+//     common practice) gives up glycogen at a rate set so that a 10–12 h
+//     overnight fast lowers it by roughly a third to a half (common
+//     practice); gluconeogenesis supplies the rest of its glucose output.
+//     Muscle covers 30% of what is still
 //     uncovered (daily living, model assumption) and fat the rest.
+//   - Below a fifth of its capacity the liver gives up glycogen ever more
+//     slowly, in proportion to what is left, and in exercise
+//     gluconeogenesis supplies up to 0.1 g/kg/h of its output (model
+//     assumptions): liver glycogen falls but does not run dry in a fasted
+//     morning session.
 //   - Muscle synthesis is rate-limited: peak 8 mmol/kg/h (the top of the
 //     5–8 of Jentjens and Jeukendrup) at depleted stores just after
 //     exercise, falling as the fourth root of the room left to zero as
@@ -37,7 +44,8 @@ import (
 //     at most 35% of that use at hard efforts (≥ 67% VO2max ≈ 80% of
 //     maximum heart rate, common practice) rising to 60% at easy ones; the
 //     rest comes 80% from working-muscle glycogen and 20% from the liver,
-//     each taking over when the other is empty. The stores "run out" when
+//     each taking over when the other is empty (or, for the liver, near
+//     empty). The stores "run out" when
 //     both are empty.
 
 // simBody holds the constants of one athlete's simulation.
@@ -45,7 +53,9 @@ type simBody struct {
 	workingKg, otherKg float64
 	liverCapG          float64
 	restOxGPerH        float64 // at typical stores
-	liverDrainGPerH    float64
+	liverDrainGPerH    float64 // fasting glycogen output of the liver
+	liverFloorG        float64 // below this the liver's glycogen output slows
+	gngGPerH           float64 // gluconeogenesis in exercise
 	gutGPerH           float64
 
 	// per-step constants of the last dt (the simulation uses few step sizes)
@@ -62,7 +72,15 @@ func newSimBody(b Body) simBody {
 		otherKg:         other,
 		liverCapG:       b.LiverCapG,
 		restOxGPerH:     gRestOx.Min * b.MassKg,
-		liverDrainGPerH: gLiverGlycogenolysis.Min * b.LiverCapG / ((gLiverFedHours.Min + gLiverFedHours.Max) / 2),
+		// The fasting liver gives up the overnight fall's upper end (half)
+		// over the fast's middle hours (11 of 10–12) less the first 3 in
+		// which the evening meal is still being absorbed (the gut's time
+		// constant); with that absorption, the modelled fall from the
+		// evening's peak to breakfast lands inside a third to a half.
+		liverDrainGPerH: gOvernightFall.Max * b.LiverCapG /
+			((gOvernightHours.Min+gOvernightHours.Max)/2 - gModelGut.Max),
+		liverFloorG:     gLiverFloor.Min * b.LiverCapG,
+		gngGPerH:        gGluconeogenesis.Min * b.MassKg,
 		gutGPerH:        gModelGut.Min,
 	}
 }
@@ -163,14 +181,19 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 			fromL += fromM - wG
 			fromM = wG
 		}
-		if fromL > s.LiverG {
-			extra := fromL - s.LiverG
-			fromL = s.LiverG
+		// The liver's output: gluconeogenesis first, then glycogen, which
+		// slows near the floor; what it cannot give falls on the muscle,
+		// and what neither can is the shortfall.
+		gng := min(fromL, b.gngGPerH*dt)
+		want := fromL - gng
+		got := b.liverDraw(s.LiverG, want)
+		if got < want {
+			extra := want - got
 			take := min(extra, wG-fromM)
 			fromM += take
 			short = extra - take
 		}
-		s.LiverG -= fromL
+		s.LiverG -= got
 		if b.workingKg > 0 {
 			s.Dw -= fromM / (b.workingKg * gGlucosyl.Min)
 			if s.Dw < 0 {
@@ -204,7 +227,7 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 	a -= fromGut
 	r -= fromGut
 	if r > 0 {
-		d := min(min(r, b.liverDrainGPerH*dt), s.LiverG)
+		d := b.liverDraw(s.LiverG, min(r, b.liverDrainGPerH*dt))
 		s.LiverG -= d
 		// Daily living draws a share of the rest on muscle glycogen,
 		// spread over all muscle; fat covers what remains.
@@ -232,6 +255,21 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 	a -= dw + do
 	s.LiverG = min(b.liverCapG, s.LiverG+a)
 	return 0
+}
+
+// liverDraw is how much of want grams the liver's glycogen gives: all of
+// it down to the floor, then ever less, in proportion to what is left
+// (so the liver approaches empty but does not reach it).
+func (b *simBody) liverDraw(liverG, want float64) float64 {
+	if want <= 0 || liverG <= 0 {
+		return 0
+	}
+	free := max(0, liverG-b.liverFloorG)
+	if want <= free || b.liverFloorG <= 0 {
+		return min(want, liverG)
+	}
+	low := liverG - free
+	return free + low*(1-math.Exp(-(want-free)/b.liverFloorG))
 }
 
 const simStep = 5 * time.Minute
