@@ -68,10 +68,10 @@ func newSimBody(b Body) simBody {
 		other = 0
 	}
 	return simBody{
-		workingKg:       b.WorkingKg,
-		otherKg:         other,
-		liverCapG:       b.LiverCapG,
-		restOxGPerH:     gRestOx.Min * b.MassKg,
+		workingKg:   b.WorkingKg,
+		otherKg:     other,
+		liverCapG:   b.LiverCapG,
+		restOxGPerH: gRestOx.Min * b.MassKg,
 		// The fasting liver gives up the overnight fall's upper end (half)
 		// over the fast's middle hours (11 of 10–12) less the first 3 in
 		// which the evening meal is still being absorbed (the gut's time
@@ -79,9 +79,9 @@ func newSimBody(b Body) simBody {
 		// evening's peak to breakfast lands inside a third to a half.
 		liverDrainGPerH: gOvernightFall.Max * b.LiverCapG /
 			((gOvernightHours.Min+gOvernightHours.Max)/2 - gModelGut.Max),
-		liverFloorG:     gLiverFloor.Min * b.LiverCapG,
-		gngGPerH:        gGluconeogenesis.Min * b.MassKg,
-		gutGPerH:        gModelGut.Min,
+		liverFloorG: gLiverFloor.Min * b.LiverCapG,
+		gngGPerH:    gGluconeogenesis.Min * b.MassKg,
+		gutGPerH:    gModelGut.Min,
 	}
 }
 
