@@ -115,6 +115,10 @@ func TestPlanSheet(t *testing.T) {
 		t.Fatalf("unpublished plan's sheet: %d %q\n%.800s", res.status, res.contentType, res.body)
 	}
 
+	// The plan page links to its version's sheet, on A4 and on Letter.
+	page := b.get(base)
+	page.mustContain(t, `href="`+base+`/versions/1/sheet.pdf"`, `href="`+base+`/versions/1/sheet.pdf?paper=letter"`, "Plan sheet (PDF)")
+
 	// The draft prints by its version, marked on every page.
 	res = b.getPDF(base + "/versions/1/sheet.pdf")
 	res.mustPDF(t)
