@@ -620,6 +620,8 @@ func (d *doc) eventFigures() {
 	if m := p.PreEventMeal; m != nil {
 		v := fmt.Sprintf("%s g carbohydrate (%s g/kg) at %s, %s h before the start.",
 			num(m.ChoG, 0), strconv.FormatFloat(m.ChoGPerKg, 'f', 1, 64), m.At.In(d.loc).Format("Mon 2 Jan 15:04"), num(m.HoursBefore, 1))
+		// Stored suggestions are keyed by the date in the time's own offset;
+		// near midnight that can differ from the date in the plan's zone.
 		if sg := d.s.Suggestions[menu.FeedKey("pre_event", m.At.In(d.loc).Format(time.DateOnly), 0)]; sg != "" {
 			v += " For example: " + sg
 		} else if sg := d.s.Suggestions[menu.FeedKey("pre_event", m.At.Format(time.DateOnly), 0)]; sg != "" {
