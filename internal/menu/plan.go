@@ -12,15 +12,60 @@ import (
 // "repletion"; index is 0-based within the day (or the repletion window).
 func FeedKey(kind, date string, index int) string { return fmt.Sprintf("%s:%s:%d", kind, date, index) }
 
-// NoFit is the text shown when no combination of foods fits a feed.
-const NoFit = "No combination of 1–3 foods on the list fits."
+// NoFit is the text shown when no combination of foods fits a feed within
+// the tolerance and the caps: said plainly rather than forcing a bad one.
+const NoFit = "No good match in the foods list — add a product."
+
+// Options are what a client's record asks of all of a plan's suggestions.
+type Options struct {
+	GlutenFree bool // see GlutenFreeFor
+}
+
+// GlutenFreeNote is shown next to the suggestions when GlutenFree applies.
+const GlutenFreeNote = "Gluten-free suggestions (recorded caution)"
+
+// GlutenFreeFor is the rule: suggestions are gluten-free when the client's
+// recorded cautions mention coeliac (celiac) disease or gluten, in any case.
+// It errs towards leaving gluten out: "no gluten issues" also turns it on,
+// which costs only a narrower choice of foods.
+func GlutenFreeFor(cautions string) bool {
+	c := strings.ToLower(cautions)
+	for _, w := range []string{"coeliac", "celiac", "cœliac", "gluten"} {
+		if strings.Contains(c, w) {
+			return true
+		}
+	}
+	return false
+}
+
+// OptionsFor reads the options from a client's recorded cautions.
+func OptionsFor(cautions string) Options { return Options{GlutenFree: GlutenFreeFor(cautions)} }
+
+// Note is the line shown next to suggestions made with these options.
+func (o Options) Note() string {
+	if o.GlutenFree {
+		return GlutenFreeNote
+	}
+	return ""
+}
+
+func (o Options) apply(n Need) Need {
+	n.GlutenFree = n.GlutenFree || o.GlutenFree
+	return n
+}
 
 // PlanSuggestions makes the food suggestions of every feed of a plan, by
 // FeedKey: day feeds in order (low-fibre on the days the plan marks so, on the
 // move for the in-event share of the event day), the pre-event meal
 // (low-fibre), and the repletion feeds (drinks and portable foods first:
-// they come every 15–60 min, soon after a session).
-func PlanSuggestions(plan fuel.Plan, foods []Food) map[string]string {
+// they come every 15–60 min, soon after a session). Where nothing fits a
+// day or repletion feed, its text is NoFit. opts, at most one, are the
+// client's (see OptionsFor).
+func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]string {
+	var o Options
+	if len(opts) > 0 {
+		o = opts[0]
+	}
 	out := map[string]string{}
 	loc, err := time.LoadLocation(plan.TimeZone)
 	if err != nil || plan.TimeZone == "" {
@@ -29,8 +74,11 @@ func PlanSuggestions(plan fuel.Plan, foods []Food) map[string]string {
 	for _, d := range plan.Days {
 		needs := make([]Need, len(d.Feeds))
 		for i, f := range d.Feeds {
-			needs[i] = Need{ChoG: f.ChoG, LowFibre: d.LowFibre, OnTheMove: strings.Contains(f.Label, "during"),
-				PreferOnTheMove: strings.Contains(f.Label, "refuel")}
+			needs[i] = o.apply(Need{ChoG: f.ChoG, LowFibre: d.LowFibre, OnTheMove: strings.Contains(f.Label, "during"),
+				PreferOnTheMove: strings.Contains(f.Label, "refuel")})
+			if needs[i].OnTheMove && plan.DuringEvent != nil {
+				needs[i].Hours = plan.DuringEvent.DurationMin / 60 // the in-event total
+			}
 		}
 		sugg, ok := SuggestDay(foods, needs)
 		for i := range needs {
@@ -43,19 +91,23 @@ func PlanSuggestions(plan fuel.Plan, foods []Food) map[string]string {
 		}
 	}
 	if m := plan.PreEventMeal; m != nil {
-		if sg, ok := Suggest(foods, Need{ChoG: m.ChoG, LowFibre: true}); ok {
+		if sg, ok := Suggest(foods, o.apply(Need{ChoG: m.ChoG, LowFibre: true})); ok {
 			out[FeedKey("pre_event", m.At.In(loc).Format(time.DateOnly), 0)] = sg.Text()
 		}
 	}
 	if rp := plan.Repletion; rp != nil {
 		needs := make([]Need, len(rp.Feeds))
 		for i, f := range rp.Feeds {
-			needs[i] = Need{ChoG: f.ChoG, PreferOnTheMove: true}
+			needs[i] = o.apply(Need{ChoG: f.ChoG, PreferOnTheMove: true})
 		}
 		sugg, ok := SuggestDay(foods, needs)
 		for i, f := range rp.Feeds {
-			if ok[i] {
-				out[FeedKey("repletion", f.At.In(loc).Format(time.DateOnly), i)] = sugg[i].Text()
+			key := FeedKey("repletion", f.At.In(loc).Format(time.DateOnly), i)
+			switch {
+			case ok[i]:
+				out[key] = sugg[i].Text()
+			case needs[i].ChoG > 0:
+				out[key] = NoFit
 			}
 		}
 	}

@@ -25,10 +25,14 @@ type Food struct {
 	PortionG      float64
 	Liquid        bool // a drink
 	Portable      bool // easy to carry and eat on the move
-	Source        string
-	ArchivedAt    *time.Time
-	CreatedAt     time.Time
-	UpdatedAt     time.Time
+	// ContainsGluten marks wheat, barley, rye and oats (unless certified
+	// gluten-free) and foods made from them; suggestions leave them out for
+	// a client whose cautions record coeliac disease or gluten.
+	ContainsGluten bool
+	Source         string
+	ArchivedAt     *time.Time
+	CreatedAt      time.Time
+	UpdatedAt      time.Time
 }
 
 // Archived reports whether the food is archived (kept, but no longer suggested).
@@ -38,12 +42,12 @@ func (f Food) Archived() bool { return f.ArchivedAt != nil }
 var ErrFoodNameTaken = errors.New("store: a food with this name already exists")
 
 const foodCols = `id, name, carbohydrate_g::float8, protein_g::float8, fat_g::float8, fibre_g::float8, energy_kcal::float8,
-	portion_name, portion_g::float8, liquid, portable, source, archived_at, created_at, updated_at`
+	portion_name, portion_g::float8, liquid, portable, contains_gluten, source, archived_at, created_at, updated_at`
 
 func scanFood(row pgx.Row) (Food, error) {
 	var f Food
 	err := row.Scan(&f.ID, &f.Name, &f.CarbohydrateG, &f.ProteinG, &f.FatG, &f.FibreG, &f.EnergyKcal,
-		&f.PortionName, &f.PortionG, &f.Liquid, &f.Portable, &f.Source, &f.ArchivedAt, &f.CreatedAt, &f.UpdatedAt)
+		&f.PortionName, &f.PortionG, &f.Liquid, &f.Portable, &f.ContainsGluten, &f.Source, &f.ArchivedAt, &f.CreatedAt, &f.UpdatedAt)
 	return f, notFound(err)
 }
 
@@ -65,7 +69,7 @@ func (s *Store) FoodByID(ctx context.Context, id int64) (Food, error) {
 func foodDetail(f *Food) map[string]any {
 	return map[string]any{"name": f.Name, "carbohydrate_g": f.CarbohydrateG, "protein_g": f.ProteinG, "fat_g": f.FatG,
 		"fibre_g": f.FibreG, "energy_kcal": f.EnergyKcal, "portion_name": f.PortionName, "portion_g": f.PortionG,
-		"liquid": f.Liquid, "portable": f.Portable, "source": f.Source}
+		"liquid": f.Liquid, "portable": f.Portable, "contains_gluten": f.ContainsGluten, "source": f.Source}
 }
 
 func foodErr(err error) error {
@@ -79,10 +83,10 @@ func foodErr(err error) error {
 func (s *Store) AddFood(ctx context.Context, actor Actor, f *Food) error {
 	return foodErr(s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := tx.QueryRow(ctx, `INSERT INTO foods (name, carbohydrate_g, protein_g, fat_g, fibre_g, energy_kcal,
-			portion_name, portion_g, liquid, portable, source) VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11)
+			portion_name, portion_g, liquid, portable, source, contains_gluten) VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12)
 			RETURNING id, created_at, updated_at`,
 			f.Name, f.CarbohydrateG, f.ProteinG, f.FatG, f.FibreG, f.EnergyKcal, f.PortionName, f.PortionG,
-			f.Liquid, f.Portable, f.Source).Scan(&f.ID, &f.CreatedAt, &f.UpdatedAt); err != nil {
+			f.Liquid, f.Portable, f.Source, f.ContainsGluten).Scan(&f.ID, &f.CreatedAt, &f.UpdatedAt); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "create", "food", f.ID, foodDetail(f))
@@ -93,10 +97,11 @@ func (s *Store) AddFood(ctx context.Context, actor Actor, f *Food) error {
 func (s *Store) UpdateFood(ctx context.Context, actor Actor, f *Food) error {
 	return foodErr(s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := execOne(ctx, tx, `UPDATE foods SET name = $2, carbohydrate_g = $3, protein_g = $4, fat_g = $5, fibre_g = $6,
-			energy_kcal = $7, portion_name = $8, portion_g = $9, liquid = $10, portable = $11, source = $12, updated_at = now()
+			energy_kcal = $7, portion_name = $8, portion_g = $9, liquid = $10, portable = $11, source = $12,
+			contains_gluten = $13, updated_at = now()
 			WHERE id = $1`,
 			f.ID, f.Name, f.CarbohydrateG, f.ProteinG, f.FatG, f.FibreG, f.EnergyKcal, f.PortionName, f.PortionG,
-			f.Liquid, f.Portable, f.Source); err != nil {
+			f.Liquid, f.Portable, f.Source, f.ContainsGluten); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "update", "food", f.ID, foodDetail(f))
