@@ -67,6 +67,7 @@ type planner struct {
 	occNotes     []occasionNote
 	start        simState // startState, once computed
 	haveStart    bool
+	preMealNight bool // the pre-event meal could only go in the night hours
 }
 
 // Compute builds the plan a request asks for. Bad input yields a
@@ -380,7 +381,7 @@ func (p *planner) ordinarySlots(dp *dayPlan, sess []sessionInfo, want int, out *
 					at = end
 				}
 			}
-			if blockedAt(dp.blocked, at) || n >= len(out) || (n > 0 && out[n-1].at.Equal(at)) {
+			if blockedAt(dp.blocked, at) || n >= len(out) || (n > 0 && out[n-1].at.Equal(at)) || !at.Before(dp.date.AddDate(0, 0, 1)) {
 				continue
 			}
 			out[n] = placedSlot{at, sl.label, sl.weight}
@@ -595,7 +596,7 @@ func (p *planner) applyFeedOverrides(d *Day, dp *dayPlan, fixed []bool) {
 		}
 	}
 	sortFeeds(d.Feeds, fixed)
-	if dp.day.Role == RoleEvent && p.plan.PreEventMeal != nil {
+	if p.plan.PreEventMeal != nil {
 		for _, f := range d.Feeds {
 			if f.Label == labelPreEvent && f.Overridden {
 				p.plan.PreEventMeal.At = f.At
@@ -708,6 +709,7 @@ func (p *planner) loading() {
 			"The event is expected to last %.0f min, over %.0f min, so carbohydrate loading suits it.",
 			p.ev.ExpectedDurationMin, gLoadingEvent.Min)
 	}
+	rehome(dps)
 	p.plan.Days = make([]Day, len(dps))
 	for i := range dps {
 		p.plan.Days[i] = p.buildDay(&dps[i])
@@ -778,10 +780,13 @@ func (p *planner) eventDay(date time.Time, rate float64) dayPlan {
 	}
 	dp.fixed = fixed
 	dp.blocked = append(dp.blocked, window{blockFrom, blockTo})
-	// Raise the day target (inside the band) to carry the protocol feeds.
+	// Raise the day target (inside the band) to carry the protocol feeds
+	// that fall on this day.
 	var sum float64
 	for _, f := range fixed {
-		sum += f.ChoG
+		if f.At.Format("2006-01-02") == d.Date {
+			sum += f.ChoG
+		}
 	}
 	need := math.Ceil(sum/mass*2) / 2
 	if need > d.ChoGPerKg {
@@ -789,6 +794,56 @@ func (p *planner) eventDay(date time.Time, rate float64) dayPlan {
 	}
 	d.Advice = []string{"Keep to foods and drinks already tried in training."}
 	return dp
+}
+
+// keepOwn moves to the front the fixed feeds of a day plan that fall on
+// its own date and returns how many there are.
+func keepOwn(dp *dayPlan) int {
+	next := dp.date.AddDate(0, 0, 1)
+	n := 0
+	for _, f := range dp.fixed {
+		if !f.At.Before(dp.date) && f.At.Before(next) {
+			dp.fixed[n] = f
+			n++
+		}
+	}
+	return n
+}
+
+// rehome moves each protocol feed to the plan day it falls on (a pre-event
+// meal the evening before an event just after midnight, a recovery feed
+// after midnight), with the windows that keep ordinary meals away from it;
+// a feed beyond the plan's days is dropped. dps are consecutive days.
+func rehome(dps []dayPlan) {
+	for i := range dps {
+		dp := &dps[i]
+		var moved [4]Feed
+		nm := 0
+		next := dp.date.AddDate(0, 0, 1)
+		for _, f := range dp.fixed {
+			if (f.At.Before(dp.date) || !f.At.Before(next)) && nm < len(moved) {
+				moved[nm] = f
+				nm++
+			}
+		}
+		if nm == 0 {
+			continue
+		}
+		blocked := dp.blocked
+		dp.fixed = dp.fixed[:keepOwn(dp)]
+		for _, f := range moved[:nm] {
+			// A feed after the plan's last day (a recovery feed after
+			// midnight) is beyond the plan and goes.
+			for j := range dps {
+				o := &dps[j]
+				if !f.At.Before(o.date) && f.At.Before(o.date.AddDate(0, 0, 1)) {
+					o.fixed = append(o.fixed, f)
+					o.blocked = append(o.blocked, blocked...)
+					break
+				}
+			}
+		}
+	}
 }
 
 // gDuringFloor is the in-event g/h recommended before the stores are
@@ -803,21 +858,37 @@ func gDuringFloor(min float64) float64 {
 	return gLongFloor.Min
 }
 
-// preEventMeal is 1 g/kg per hour before the start, 3 h before by default,
-// later when that would be before 05:00; only for events over 60 min.
+// preEventMeal is 1 g/kg per hour before the start, 3 h before by
+// default; only for events over 60 min. It is not put in the night hours
+// (before 05:00) when the guideline's 1–4 h window allows: it moves later,
+// to 05:00 when that is still an hour before the start, or else earlier,
+// to the evening before (4 h before a start in the small hours). Only when
+// the whole window lies in the night does it stay there, 1 h before, and a
+// finding says so.
 func (p *planner) preEventMeal() *PreEventMeal {
 	if p.ev.ExpectedDurationMin <= gPreEventMin.Min {
 		return nil
 	}
+	earliestMin := int(gPreEarliest.Min * 60)
+	night := func(t time.Time) bool { return t.Hour()*60+t.Minute() < earliestMin }
+	before := func(h float64) time.Time { return p.evStart.Add(-time.Duration(h * float64(time.Hour))) }
 	h := gPreDefaultH.Min
-	earliest := clockOn(p.evStart, int(gPreEarliest.Min*60))
-	if p.evStart.Add(-time.Duration(h * float64(time.Hour))).Before(earliest) {
-		h = math.Floor(p.evStart.Sub(earliest).Hours()*2) / 2
+	p.preMealNight = false
+	if at := before(h); night(at) {
+		switch later := clockOn(at, earliestMin); {
+		case p.evStart.Sub(later).Hours() >= gPreEventHours.Min:
+			h = math.Floor(p.evStart.Sub(later).Hours()*2) / 2
+		case !night(before(gPreEventHours.Max)):
+			h = gPreEventHours.Max
+		default:
+			h = gPreEventHours.Min
+			p.preMealNight = true
+		}
 	}
 	h = math.Max(gPreEventHours.Min, math.Min(gPreEventHours.Max, h))
 	gkg := math.Max(gPreEventCho.Min, math.Min(gPreEventCho.Max, h))
 	return &PreEventMeal{
-		At:          p.evStart.Add(-time.Duration(h * float64(time.Hour))),
+		At:          before(h),
 		HoursBefore: h,
 		ChoGPerKg:   gkg,
 		ChoG:        math.Round(gkg * p.body.MassKg),
@@ -886,7 +957,29 @@ func (p *planner) recoveryDay(date time.Time) dayPlan {
 func (p *planner) race() {
 	evDay := midnight(p.evStart, p.loc)
 	dp := p.eventDay(evDay, gDuringFloor(p.ev.ExpectedDurationMin))
-	p.plan.Days = []Day{p.buildDay(&dp)}
+	// A pre-event meal the evening before, or a recovery feed after
+	// midnight, belongs to the day it falls on: the plan then covers that
+	// day too.
+	dps := make([]dayPlan, 0, 3)
+	if pm := p.plan.PreEventMeal; pm != nil && pm.At.Before(evDay) {
+		// The day before carries the meal on top of its own training-load
+		// target, as far as its band allows.
+		prev := p.trainingDay(evDay.AddDate(0, 0, -1), RoleTraining)
+		prev.day.ChoGPerKg = math.Min(prev.day.BandMaxGPerKg, prev.day.ChoGPerKg+pm.ChoGPerKg)
+		dps = append(dps, prev)
+	}
+	dps = append(dps, dp)
+	for _, f := range dp.fixed {
+		if !f.At.Before(evDay.AddDate(0, 0, 1)) {
+			dps = append(dps, p.recoveryDay(evDay.AddDate(0, 0, 1)))
+			break
+		}
+	}
+	rehome(dps)
+	p.plan.Days = make([]Day, len(dps))
+	for i := range dps {
+		p.plan.Days[i] = p.buildDay(&dps[i])
+	}
 	p.eventSimulation(evDay.AddDate(0, 0, -1), time.Time{}, evDay, false)
 }
 
@@ -903,9 +996,13 @@ func (p *planner) week() {
 		n = 7
 	}
 	p.plan.Days = make([]Day, n)
+	dps := make([]dayPlan, n)
 	for i, dt := range dateSeq(first, n) {
-		dp := p.trainingDay(dt, RoleTraining)
-		p.plan.Days[i] = p.buildDay(&dp)
+		dps[i] = p.trainingDay(dt, RoleTraining)
+	}
+	rehome(dps)
+	for i := range dps {
+		p.plan.Days[i] = p.buildDay(&dps[i])
 	}
 	from := first.Unix()
 	to := first.AddDate(0, 0, n).Unix()
@@ -1033,7 +1130,8 @@ func (p *planner) eventSimulation(first, loadStart, evDay time.Time, loading boo
 	dayStart := evDay.Unix()
 	ex := p.exercises(from, start)
 	in := p.intakes(p.plan.Days, start)
-	if !loading {
+	usualBefore := !loading && (len(p.plan.Days) == 0 || p.plan.Days[0].Date != first.Format("2006-01-02"))
+	if usualBefore {
 		// A race plan: the day before follows the usual intake.
 		in = append(p.usualIntakes([]Day{{Date: first.Format("2006-01-02")}}, dayStart), in...)
 	}
@@ -1056,11 +1154,12 @@ func (p *planner) eventSimulation(first, loadStart, evDay time.Time, loading boo
 			for i := range p.plan.Days {
 				if p.plan.Days[i].Role == RoleEvent {
 					dp := p.eventDay(evDay, rate)
+					dp.fixed = dp.fixed[:keepOwn(&dp)] // feeds on other days stay there
 					p.plan.Days[i] = p.buildDay(&dp)
 				}
 			}
 			in = p.intakes(p.plan.Days, start)
-			if !loading {
+			if usualBefore {
 				in = append(p.usualIntakes([]Day{{Date: first.Format("2006-01-02")}}, dayStart), in...)
 			}
 			curve = curve[:mark]
@@ -1185,6 +1284,7 @@ func (p *planner) repletion() {
 	nDays := int(math.Round(last.Sub(first).Hours()/24)) + 1
 	p.plan.Days = make([]Day, nDays)
 	blocked := []window{{end, windowEnd}, {next.Add(-time.Hour), next.Add(90 * time.Minute)}}
+	dps := make([]dayPlan, nDays)
 	for i, dt := range dateSeq(first, nDays) {
 		dp := p.trainingDay(dt, RoleRepletion)
 		// Recovery feeds of later sessions stay; the refuelling replaces
@@ -1210,7 +1310,11 @@ func (p *planner) repletion() {
 		if need := math.Ceil(sum/mass*2) / 2; need > dp.day.ChoGPerKg {
 			dp.day.ChoGPerKg = math.Min(need, dp.day.BandMaxGPerKg)
 		}
-		p.plan.Days[i] = p.buildDay(&dp)
+		dps[i] = dp
+	}
+	rehome(dps)
+	for i := range dps {
+		p.plan.Days[i] = p.buildDay(&dps[i])
 	}
 	// Feeds may have moved or been overridden; the repletion feeds shown are
 	// those of the days.

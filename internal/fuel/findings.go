@@ -121,6 +121,16 @@ func (p *planner) finish() {
 			"Pre-event meal of %g g/kg (%g g) %g h before the start%s: %s the guideline of %g–%g g/kg, %g–%g h before.",
 			pm.ChoGPerKg, pm.ChoG, pm.HoursBefore, overrideWord(p.preMealOverridden()), word,
 			gPreEventCho.Min, gPreEventCho.Max, gPreEventHours.Min, gPreEventHours.Max)
+		if p.preMealNight {
+			p.find("pre-event-meal-night", LevelNote, "pre_event_meal", SrcACSM,
+				"The start at %s leaves no time for the pre-event meal outside the night hours (before 05:00): it is set %g h before, at %s; plan the early rise, or a larger meal the evening before.",
+				p.evStart.Format("15:04"), pm.HoursBefore, pm.At.Format("15:04"))
+		}
+		if pm.At.Format("2006-01-02") != p.evDayDate {
+			p.find("pre-event-meal-day", LevelNote, "pre_event_meal", SrcACSM,
+				"The start at %s is early on %s, so the pre-event meal, %g h before, is the evening before: %s at %s, listed on that day.",
+				p.evStart.Format("15:04"), p.evDayDate, pm.HoursBefore, pm.At.Format("2006-01-02"), pm.At.Format("15:04"))
+		}
 	} else if p.ev != nil {
 		p.find("pre-event-meal-not-needed", LevelNote, "pre_event_meal", SrcACSM,
 			"The pre-event meal guideline (%g–%g g/kg, %g–%g h before) is for exercise over %g min; a usual light meal suits this %g-min event.",

@@ -70,6 +70,9 @@ func checkPlanInvariants(t *testing.T, req Request, p Plan) {
 		for _, f := range d.Feeds {
 			cho += f.ChoG
 			prot += f.ProteinG
+			if got := f.At.Format("2006-01-02"); got != d.Date {
+				t.Errorf("%s: feed %s at %s is listed on another day", d.Date, f.Label, f.At.Format(time.RFC3339))
+			}
 			if f.ChoG < 0 || f.ProteinG < 0 || f.ChoG != math.Round(f.ChoG) {
 				t.Errorf("%s: feed %+v has negative or fractional grams", d.Date, f)
 			}
