@@ -166,11 +166,12 @@ type PlanView struct {
 
 	Versions []VersionView
 
-	Carry     []Carried         // values typed for a version that can no longer change
-	Theirs    map[string]string // after a refused save: the saved value of each input where it differs from the one typed
-	Form      forms.Form        // override inputs: what the user typed, and errors
-	Notice    string            // e.g. the concurrent-edit message
-	Tolerance string            // the food suggestions' tolerance, in words
+	Carry          []Carried         // values typed for a version that can no longer change
+	Theirs         map[string]string // after a refused save: the saved value of each input where it differs from the one typed
+	Form           forms.Form        // override inputs: what the user typed, and errors
+	Notice         string            // e.g. the concurrent-edit message
+	Tolerance      string            // the food suggestions' tolerance, in words
+	SuggestionNote string            // e.g. that suggestions are gluten-free for a recorded caution
 }
 
 // Carried is one value a person typed for a version that could not take it.

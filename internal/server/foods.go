@@ -42,6 +42,7 @@ type foodForm struct {
 	PortionG        *float64 `form:"portion_g" label:"Portion weight" unit:"g" validate:"required,gt=0,lte=2000"`
 	Liquid          bool     `form:"liquid"`
 	Portable        bool     `form:"portable"`
+	ContainsGluten  bool     `form:"contains_gluten"`
 	Source          string   `form:"source" label:"Source" validate:"required,max=100"`
 }
 
@@ -70,7 +71,7 @@ func decodeFood(values url.Values) (store.Food, forms.Form) {
 	return store.Food{
 		Name: in.Name, CarbohydrateG: *in.CarbohydrateG, ProteinG: *in.ProteinG, FatG: *in.FatG, FibreG: *in.FibreG,
 		EnergyKcal: *in.EnergyKcal, PortionName: in.PortionName, PortionG: *in.PortionG,
-		Liquid: in.Liquid, Portable: in.Portable, Source: in.Source,
+		Liquid: in.Liquid, Portable: in.Portable, ContainsGluten: in.ContainsGluten, Source: in.Source,
 	}, f
 }
 
@@ -91,6 +92,9 @@ func foodValues(fd store.Food) url.Values {
 	if fd.Portable {
 		v.Set("portable", "on")
 	}
+	if fd.ContainsGluten {
+		v.Set("contains_gluten", "on")
+	}
 	return v
 }
 
@@ -103,7 +107,7 @@ func MenuFoods(foods []store.Food) []menu.Food {
 		}
 		out = append(out, menu.Food{ID: f.ID, Name: f.Name, ChoPer100: f.CarbohydrateG, ProtPer100: f.ProteinG,
 			FatPer100: f.FatG, FibrePer100: f.FibreG, PortionName: f.PortionName, PortionG: f.PortionG,
-			Liquid: f.Liquid, Portable: f.Portable})
+			Liquid: f.Liquid, Portable: f.Portable, Practice: f.Source == store.SourceLabel, ContainsGluten: f.ContainsGluten})
 	}
 	return out
 }

@@ -325,7 +325,7 @@ func (s *Server) createPlan(w http.ResponseWriter, r *http.Request) {
 	if p.Title == "" {
 		p.Title = defaultTitle(in, pi.event)
 	}
-	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: *in.BodyMassKg, Suggestions: suggestionTexts(plan, MenuFoods(foods))}
+	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: *in.BodyMassKg, Suggestions: suggestionTexts(plan, MenuFoods(foods), c.Cautions)}
 	// The measurement date is kept only when the mass is the one on record.
 	if in.BodyMassOn != nil && in.BodyMassPrefill != "" {
 		if pre, err := forms.ParseNumber(in.BodyMassPrefill); err == nil && pre == *in.BodyMassKg {
@@ -860,7 +860,7 @@ func (s *Server) editPlanVersion(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: req.Athlete.BodyMassKg, BodyMassOn: v.BodyMassOn,
-		Suggestions: suggestionTexts(plan, MenuFoods(foods))}
+		Suggestions: suggestionTexts(plan, MenuFoods(foods), c.Cautions)}
 	if req.Athlete.BodyMassKg != v.BodyMassKg {
 		// A new figure: dated when it is the latest measurement on record.
 		content.BodyMassOn = nil
@@ -1052,7 +1052,7 @@ func (s *Server) revisePlan(w http.ResponseWriter, r *http.Request) {
 			return
 		}
 		content := store.PlanContent{Request: req, Result: plan, BodyMassKg: v.BodyMassKg, BodyMassOn: v.BodyMassOn,
-			Suggestions: suggestionTexts(plan, MenuFoods(foods))}
+			Suggestions: suggestionTexts(plan, MenuFoods(foods), c.Cautions)}
 		if _, err := s.Store.SaveDraft(r.Context(), Actor(r), v.ID, v.Revision, content); err != nil {
 			if errors.Is(err, store.ErrStaleRevision) || errors.Is(err, store.ErrNotDraft) {
 				s.conflict(w, r, c, p, v, f, err)

@@ -102,7 +102,8 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 	for _, o := range v.Request.FeedOverrides {
 		overriddenFeeds[fmt.Sprintf("%s_%d", o.Date, o.Index)] = true
 	}
-	suggestions := suggestFor(plan, foods)
+	suggestions := suggestFor(plan, foods, c.Cautions)
+	pv.SuggestionNote = menu.OptionsFor(c.Cautions).Note()
 	var bars []chart.DayTarget
 	for _, d := range plan.Days {
 		dv := web.DayView{
@@ -158,7 +159,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 			Value: web.Num(d.ChoGPerH, 0), Overridden: d.Overridden, Findings: take("during_event")}
 		pv.DuringName = duringName
 		if d.ChoGPerH > 0 {
-			if sg, ok := menu.Suggest(foods, menu.Need{ChoG: d.ChoGPerH, OnTheMove: true}); ok {
+			if sg, ok := menu.Suggest(foods, menu.Need{ChoG: d.ChoGPerH, OnTheMove: true, GlutenFree: menu.GlutenFreeFor(c.Cautions)}); ok {
 				pv.DuringSugg = sg.Text()
 			}
 		}
@@ -305,14 +306,15 @@ func intensityWords(x string) string {
 	return x
 }
 
-// suggestFor makes the food suggestions of a plan's feeds, by store.FeedKey.
-func suggestFor(plan fuel.Plan, foods []menu.Food) map[string]string {
-	return menu.PlanSuggestions(plan, foods)
+// suggestFor makes the food suggestions of a plan's feeds, by store.FeedKey,
+// as the client's recorded cautions ask (gluten-free for coeliac disease).
+func suggestFor(plan fuel.Plan, foods []menu.Food, cautions string) map[string]string {
+	return menu.PlanSuggestions(plan, foods, menu.OptionsFor(cautions))
 }
 
 // suggestionTexts is what a save stores with the feeds.
-func suggestionTexts(plan fuel.Plan, foods []menu.Food) map[string]string {
-	return menu.PlanSuggestions(plan, foods)
+func suggestionTexts(plan fuel.Plan, foods []menu.Food, cautions string) map[string]string {
+	return menu.PlanSuggestions(plan, foods, menu.OptionsFor(cautions))
 }
 
 // ----- client page hooks -----
