@@ -192,10 +192,21 @@ func rangeCode(role string) string {
 	return "training-day-range"
 }
 
+// bandWords names a load band in a sentence.
+func bandWords(b string) string {
+	switch b {
+	case BandRest:
+		return "light (rest day)"
+	case BandVeryHigh:
+		return "very high"
+	}
+	return b
+}
+
 func (p *planner) checkDay(d *Day) {
 	mass := p.body.MassKg
 	subj := "day:" + d.Date
-	code, src, what, band := rangeCode(d.Role), SrcBands, "the %s training-load band", d.LoadBand
+	code, src, what, band := rangeCode(d.Role), SrcBands, "the %s training-load band", bandWords(d.LoadBand)
 	unit := "g/kg/day"
 	if d.Role == RoleLoad {
 		src, what, band, unit = SrcACSM, "the carbohydrate-loading range%s", "", "g/kg per 24 h"
@@ -221,11 +232,23 @@ func (p *planner) checkDay(d *Day) {
 		if p.body.FFMKg > 0 {
 			perFFM = d.ChoG / p.body.FFMKg
 		}
-		if d.ChoGPerKg >= gWomenBM.Min || perFFM >= gWomenFFM.Min {
+		ea := d.EnergyAvailability
+		switch {
+		case (d.ChoGPerKg >= gWomenBM.Min || perFFM >= gWomenFFM.Min) && ea != nil && *ea < gEAAdequate.Min:
+			// The guide asks for enough total energy as well: checked
+			// against adequate energy availability when it is known.
+			p.find("women-loading", LevelCaution, subj, SrcSedlock,
+				"For a woman loading, %g g/kg body mass meets the carbohydrate guide (over %g g/kg body mass or %g g/kg lean mass), but energy availability of %g kcal/kg FFM/day is under the adequate %g: the guide also asks for enough total energy.",
+				d.ChoGPerKg, gWomenBM.Min, gWomenFFM.Min, *ea, gEAAdequate.Min)
+		case d.ChoGPerKg >= gWomenBM.Min || perFFM >= gWomenFFM.Min:
+			what := "with enough total energy"
+			if ea == nil {
+				what = "provided total energy is enough (not computed: fat-free mass unknown)"
+			}
 			p.find("women-loading", LevelOK, subj, SrcSedlock,
-				"For a woman loading, %g g/kg body mass meets the guide of over %g g/kg body mass or %g g/kg lean mass, with enough total energy.",
-				d.ChoGPerKg, gWomenBM.Min, gWomenFFM.Min)
-		} else {
+				"For a woman loading, %g g/kg body mass meets the guide of over %g g/kg body mass or %g g/kg lean mass, %s.",
+				d.ChoGPerKg, gWomenBM.Min, gWomenFFM.Min, what)
+		default:
 			p.find("women-loading", LevelCaution, subj, SrcSedlock,
 				"For a woman loading, %g g/kg body mass is below the guide of over %g g/kg body mass or %g g/kg lean mass.",
 				d.ChoGPerKg, gWomenBM.Min, gWomenFFM.Min)

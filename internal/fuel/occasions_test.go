@@ -96,3 +96,44 @@ func TestRequestEatingOccasionsCountEveryFeed(t *testing.T) {
 		t.Errorf("training day lost its recovery feed: %+v", p.Days[0].Feeds)
 	}
 }
+
+func TestWomenLoadingChecksTotalEnergy(t *testing.T) {
+	// Sedlock DA. The latest on carbohydrate loading. Curr Sports Med Rep
+	// 2008;7(4):209–213: women loading need over 8 g/kg body mass (or 10 g/kg
+	// lean mass) with enough total energy. Energy is judged against the
+	// adequate energy availability of about 45 kcal/kg FFM/day (IOC consensus
+	// statement on REDs (Mountjoy M et al. Br J Sports Med 2018;52:687–697;
+	// 2023 update)). A 3 h hard session on the first load day leaves energy
+	// availability under 45 even at 10.5 g/kg.
+	req := loadRequest(t, "marathon-loading.json")
+	req.Training = append(req.Training, TrainingSession{Date: "2027-04-16", Start: "09:00", DurationMin: 180, Modality: "run", Intensity: "hard"})
+	p := mustCompute(t, req)
+	d := dayOf(t, p, "2027-04-16")
+	if d.EnergyAvailability == nil || *d.EnergyAvailability >= 45 {
+		t.Fatalf("energy availability %v, the check needs it under 45", d.EnergyAvailability)
+	}
+	f := oneFinding(t, p, "women-loading", "day:2027-04-16")
+	if f.Level != LevelCaution || !strings.Contains(f.Message, "energy availability") {
+		t.Errorf("women-loading with low energy: %+v", f)
+	}
+	// The second load day, without that session, has enough energy.
+	if f := oneFinding(t, p, "women-loading", "day:2027-04-17"); f.Level != LevelOK {
+		t.Errorf("women-loading 2027-04-17: %+v", f)
+	}
+}
+
+func TestRestDayFindingNamesTheBand(t *testing.T) {
+	// ACSM/AND/DC 2016 joint position statement; Burke et al. 2011: light
+	// 3–5 g/kg/day; a day without training sits in the light band.
+	p := mustCompute(t, loadRequest(t, "training-week.json"))
+	f := oneFinding(t, p, "training-day-range", "day:2027-02-03")
+	if !strings.Contains(f.Message, "light (rest day) training-load band of 3–5 g/kg/day") {
+		t.Errorf("rest day finding: %s", f.Message)
+	}
+	// Slots of a dense schedule fall on the quarter hour.
+	for _, sl := range scheduleFor(8) {
+		if sl.hhmm%15 != 0 {
+			t.Errorf("8 occasions: slot at %02d:%02d", sl.hhmm/60, sl.hhmm%60)
+		}
+	}
+}

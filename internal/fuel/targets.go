@@ -162,7 +162,8 @@ func scheduleFor(n int) []slot {
 	out := make([]slot, n)
 	span := (21*60 + 30) - 7*60
 	for i := range out {
-		m := 7*60 + span*i/(n-1)
+		// on the quarter hour
+		m := 7*60 + (span*i/(n-1)+7)/15*15
 		out[i] = slot{m, "snack", 0.5}
 	}
 	// The three slots nearest breakfast, lunch and dinner are meals.
