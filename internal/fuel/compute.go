@@ -275,6 +275,17 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	exKcal = math.Round(exKcal)
 	d.ExerciseEnergyKcal = &exKcal
 	macros(&d, mass, p.body.FFMKg, exKcal, dp.loadDay)
+	// When fat at its upper share still leaves energy availability under
+	// the adequate 45 kcal/kg FFM/day (IOC), the carbohydrate rises in
+	// 0.5 g/kg steps inside the day's band until it is adequate or at the
+	// band's top (a dietitian's carbohydrate override is kept as it is).
+	if (ov == nil || ov.ChoGPerKg == nil) && p.body.FFMKg > 0 {
+		for d.ChoGPerKg+0.5 <= d.BandMaxGPerKg+1e-9 && (d.EnergyKcal-exKcal)/p.body.FFMKg < gEAAdequate.Min {
+			d.ChoGPerKg = round1(math.Floor(d.ChoGPerKg*2+1e-9)/2 + 0.5)
+			d.ChoG = math.Round(d.ChoGPerKg * mass)
+			macros(&d, mass, p.body.FFMKg, exKcal, dp.loadDay)
+		}
+	}
 
 	// Ordinary eating occasions. The day's eating occasions count all its
 	// feeds, the protocol's included: the in-event fuelling counts as one,

@@ -103,10 +103,11 @@ func TestWomenLoadingChecksTotalEnergy(t *testing.T) {
 	// lean mass) with enough total energy. Energy is judged against the
 	// adequate energy availability of about 45 kcal/kg FFM/day (IOC consensus
 	// statement on REDs (Mountjoy M et al. Br J Sports Med 2018;52:687–697;
-	// 2023 update)). A 3 h hard session on the first load day leaves energy
-	// availability under 45 even at 10.5 g/kg.
+	// 2023 update)). A 3 h hard session on the first load day, kept at
+	// 10.5 g/kg by the dietitian, leaves energy availability under 45.
 	req := loadRequest(t, "marathon-loading.json")
 	req.Training = append(req.Training, TrainingSession{Date: "2027-04-16", Start: "09:00", DurationMin: 180, Modality: "run", Intensity: "hard"})
+	req.Overrides = append(req.Overrides, DayOverride{Date: "2027-04-16", ChoGPerKg: ptr(10.5)})
 	p := mustCompute(t, req)
 	d := dayOf(t, p, "2027-04-16")
 	if d.EnergyAvailability == nil || *d.EnergyAvailability >= 45 {
@@ -135,5 +136,31 @@ func TestRestDayFindingNamesTheBand(t *testing.T) {
 		if sl.hhmm%15 != 0 {
 			t.Errorf("8 occasions: slot at %02d:%02d", sl.hhmm/60, sl.hhmm%60)
 		}
+	}
+}
+
+func TestDaysReachAdequateEnergyAvailabilityInsideTheirBand(t *testing.T) {
+	// IOC consensus statement on REDs (Mountjoy M et al. Br J Sports Med
+	// 2018;52:687–697; 2023 update): adequate energy availability is about
+	// 45 kcal/kg FFM/day. With fat at most 35% of energy (common practice),
+	// a day whose band allows it carries enough carbohydrate to reach it,
+	// and stays inside its band (ACSM/AND/DC 2016 joint position statement;
+	// Burke et al. 2011); only at the band's top may it stay under.
+	p := mustCompute(t, loadRequest(t, "marathon-loading.json"))
+	for _, d := range p.Days {
+		if d.Overridden || d.EnergyAvailability == nil {
+			continue
+		}
+		if d.ChoGPerKg < d.BandMinGPerKg || d.ChoGPerKg > d.BandMaxGPerKg {
+			t.Errorf("%s: %g g/kg outside %g–%g", d.Date, d.ChoGPerKg, d.BandMinGPerKg, d.BandMaxGPerKg)
+		}
+		if *d.EnergyAvailability < 45 && d.ChoGPerKg+0.5 <= d.BandMaxGPerKg {
+			t.Errorf("%s (%s): energy availability %g with room in the band (%g of %g–%g g/kg)",
+				d.Date, d.Role, *d.EnergyAvailability, d.ChoGPerKg, d.BandMinGPerKg, d.BandMaxGPerKg)
+		}
+	}
+	// The rest day (2027-04-12) is one of them.
+	if d := dayOf(t, p, "2027-04-12"); *d.EnergyAvailability < 45 {
+		t.Errorf("rest day energy availability %g", *d.EnergyAvailability)
 	}
 }
