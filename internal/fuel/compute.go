@@ -279,12 +279,8 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	// the adequate 45 kcal/kg FFM/day (IOC), the carbohydrate rises in
 	// 0.5 g/kg steps inside the day's band until it is adequate or at the
 	// band's top (a dietitian's carbohydrate override is kept as it is).
-	if (ov == nil || ov.ChoGPerKg == nil) && p.body.FFMKg > 0 {
-		for d.ChoGPerKg+0.5 <= d.BandMaxGPerKg+1e-9 && (d.EnergyKcal-exKcal)/p.body.FFMKg < gEAAdequate.Min {
-			d.ChoGPerKg = round1(math.Floor(d.ChoGPerKg*2+1e-9)/2 + 0.5)
-			d.ChoG = math.Round(d.ChoGPerKg * mass)
-			macros(&d, mass, p.body.FFMKg, exKcal, dp.loadDay)
-		}
+	if ov == nil || ov.ChoGPerKg == nil {
+		p.raiseForEnergy(&d, exKcal, dp.loadDay)
 	}
 
 	// Ordinary eating occasions. The day's eating occasions count all its
@@ -491,6 +487,22 @@ func (p *planner) noteOccasions(date string, asked, got int, fixed []Feed) {
 		return
 	}
 	p.occNotes = append(p.occNotes, occasionNote{date, asked, got, protocolOccasions(fixed), fixedKinds(fixed)})
+}
+
+// raiseForEnergy raises a day's carbohydrate in 0.5 g/kg steps inside its
+// band while energy availability, with fat at its upper share, stays under
+// the adequate 45 kcal/kg FFM/day (IOC). Without fat-free mass it does
+// nothing.
+func (p *planner) raiseForEnergy(d *Day, exKcal float64, loadDay bool) {
+	mass, ffm := p.body.MassKg, p.body.FFMKg
+	if ffm <= 0 {
+		return
+	}
+	for d.ChoGPerKg+0.5 <= d.BandMaxGPerKg+1e-9 && (d.EnergyKcal-exKcal)/ffm < gEAAdequate.Min {
+		d.ChoGPerKg = round1(math.Floor(d.ChoGPerKg*2+1e-9)/2 + 0.5)
+		d.ChoG = math.Round(d.ChoGPerKg * mass)
+		macros(d, mass, ffm, exKcal, loadDay)
+	}
 }
 
 // ceil1 rounds up to one decimal (tolerating float noise).
@@ -1119,9 +1131,20 @@ func (p *planner) usualIntakes(days []Day, until int64) []intake {
 		if err != nil {
 			continue
 		}
-		eff, tm := dayLoad(p.sessionsOn(d.Date))
+		// The day as this engine plans a training day: its band's target,
+		// raised for adequate energy availability.
+		sess := p.sessionsOn(d.Date)
+		eff, tm := dayLoad(sess)
 		b := bandFor(eff, tm)
-		split(bandTarget(b, eff)*p.body.MassKg, w[:ns], g[:ns])
+		ud := Day{BandMaxGPerKg: b.g.Max, ChoGPerKg: bandTarget(b, eff)}
+		ud.ChoG = math.Round(ud.ChoGPerKg * p.body.MassKg)
+		var exKcal float64
+		for _, s := range sess {
+			exKcal += sessionKcalPerH(p.body, s.modality, s.pct) * s.durMin / 60
+		}
+		macros(&ud, p.body.MassKg, p.body.FFMKg, exKcal, false)
+		p.raiseForEnergy(&ud, exKcal, false)
+		split(ud.ChoG, w[:ns], g[:ns])
 		for i := 0; i < ns; i++ {
 			at := clockOn(date, sched[i].hhmm).Unix()
 			if at < until {
