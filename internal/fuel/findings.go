@@ -286,6 +286,12 @@ func (p *planner) checkDay(d *Day) {
 	}
 	if ea := d.EnergyAvailability; ea != nil {
 		switch {
+		case *ea < gEALow.Min && d.Role == RoleEvent:
+			// Energy availability is a matter of days and weeks; one event
+			// day under it is expected and is made up on the days after.
+			p.find("energy-availability", LevelNote, subj, SrcIOC,
+				"Energy availability %g kcal/kg FFM/day is low (under %g) on the event day: %g kcal eaten, %g kcal of exercise. One such day is expected; make it up on the days after.",
+				*ea, gEALow.Min, d.EnergyKcal, *d.ExerciseEnergyKcal)
 		case *ea < gEALow.Min:
 			p.find("energy-availability", LevelCaution, subj, SrcIOC,
 				"Energy availability %g kcal/kg FFM/day is low (under %g): %g kcal eaten, %g kcal of exercise.",

@@ -164,3 +164,27 @@ func TestDaysReachAdequateEnergyAvailabilityInsideTheirBand(t *testing.T) {
 		t.Errorf("rest day energy availability %g", *d.EnergyAvailability)
 	}
 }
+
+func TestLowEnergyAvailabilityOnTheEventDayIsANote(t *testing.T) {
+	// IOC consensus statement on REDs (Mountjoy M et al. Br J Sports Med
+	// 2018;52:687–697; 2023 update): low is under 30 kcal/kg FFM/day. A 10 h
+	// ride costs more than a day's eating can give back: on the event day it
+	// is a note; on a training day kept low by an override it is a caution.
+	req := loadRequest(t, "cyclist-5h-race.json")
+	req.Event.ExpectedDurationMin = 600
+	p := mustCompute(t, req)
+	ev := dayOf(t, p, req.Event.StartsAt.Format("2006-01-02"))
+	if ev.EnergyAvailability == nil || *ev.EnergyAvailability >= 30 {
+		t.Fatalf("event day energy availability %v, the check needs it under 30", ev.EnergyAvailability)
+	}
+	if f := oneFinding(t, p, "energy-availability", "day:"+ev.Date); f.Level != LevelNote || !strings.Contains(f.Message, "event day") {
+		t.Errorf("event day: %+v", f)
+	}
+	week := Request{Kind: KindWeek, Athlete: Athlete{Sex: "male", BodyMassKg: 70, HeightCm: ptr(178.0)}, StartDate: "2027-03-01", Days: 1,
+		Training:  []TrainingSession{{Date: "2027-03-01", Start: "08:00", DurationMin: 240, Modality: "run", Intensity: "hard"}},
+		Overrides: []DayOverride{{Date: "2027-03-01", ChoGPerKg: ptr(3.0)}}}
+	pw := mustCompute(t, week)
+	if f := oneFinding(t, pw, "energy-availability", "day:2027-03-01"); f.Level != LevelCaution {
+		t.Errorf("training day: %+v", f)
+	}
+}
