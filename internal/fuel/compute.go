@@ -742,6 +742,18 @@ func (p *planner) loading() {
 		p.find("one-day-loading", LevelNote, "plan", SrcBussau,
 			"One-day loading: about %.0f g/kg in 24 h with rest, after a short intense bout, reaches high muscle glycogen.",
 			gLoadingOneDay.Min)
+		// The protocol starts with the bout: look for a short, hard
+		// session on the load day.
+		loadDate := dates[taper-nLoad].Format("2006-01-02")
+		bout := false
+		for _, s := range p.sessionsOn(loadDate) {
+			bout = bout || (s.durMin <= gShortBout.Max && s.pct >= gShortBout.Min)
+		}
+		if !bout {
+			p.find("one-day-bout", LevelNote, "day:"+loadDate, SrcBussau,
+				"No short intense bout (at most %g min at %g%% of VO2max or more) is logged on the load day %s; one-day loading was studied after one.",
+				gShortBout.Max, gShortBout.Min, loadDate)
+		}
 	}
 }
 

@@ -57,6 +57,7 @@ var Guidelines = []Guideline{
 	{"loading.women-bm", "women loading: over 8 g/kg body mass per day", 8, 8, "g/kg/day", SrcSedlock},
 	{"loading.women-ffm", "women loading: or 10 g/kg lean mass per day", 10, 10, "g/kg FFM/day", SrcSedlock},
 	{"loading.one-day", "one-day loading: about 10 g/kg in 24 h with rest", 10, 10, "g/kg per 24 h", SrcBussau},
+	{"model.short-bout", "a short intense bout before one-day loading: at most 15 min (Max) at 85% VO2max or more (Min)", 85, 15, "% VO2max; min", SrcModel},
 	{"repletion.speedy-gap", "speedy refuelling applies when under 8 h separate two demanding sessions", 8, 8, "h", SrcACSM},
 	{"repletion.rate", "speedy refuelling: 1.0–1.2 g/kg/h for the first 4 h, then daily needs", 1.0, 1.2, "g/kg/h", SrcACSM},
 	{"repletion.window", "speedy refuelling window", 4, 4, "h", SrcACSM},
@@ -194,6 +195,7 @@ var (
 	gWomenBM        = guideline("loading.women-bm")
 	gWomenFFM       = guideline("loading.women-ffm")
 	gLoadingOneDay  = guideline("loading.one-day")
+	gShortBout      = guideline("model.short-bout")
 	gSpeedyGap      = guideline("repletion.speedy-gap")
 	gRepletionRate  = guideline("repletion.rate")
 	gRepletionWin   = guideline("repletion.window")

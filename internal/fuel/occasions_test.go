@@ -188,3 +188,23 @@ func TestLowEnergyAvailabilityOnTheEventDayIsANote(t *testing.T) {
 		t.Errorf("training day: %+v", f)
 	}
 }
+
+func TestOneDayLoadingLooksForTheShortIntenseBout(t *testing.T) {
+	// Bussau VA et al. Eur J Appl Physiol 2002;87:290–295 (from memory):
+	// about 10 g/kg in 24 h with rest, after a short intense bout.
+	req := loadRequest(t, "marathon-loading.json")
+	req.Protocol, req.Overrides, req.TaperDays = ProtocolOneDay, nil, 3
+	req.Training[len(req.Training)-1] = TrainingSession{Date: "2027-04-17", Start: "07:00", DurationMin: 3, Modality: "run", Intensity: "pct:100"}
+	p := mustCompute(t, req)
+	if fs := findingsOf(p, "one-day-bout"); len(fs) != 0 {
+		t.Errorf("bout logged, yet: %+v", fs)
+	}
+	if d := dayOf(t, p, "2027-04-17"); d.Role != RoleLoad || d.ChoGPerKg < 10 {
+		t.Errorf("one-day load day %+v", d)
+	}
+	req.Training[len(req.Training)-1].Intensity = "easy"
+	p = mustCompute(t, req)
+	if f := oneFinding(t, p, "one-day-bout", "day:2027-04-17"); f.Level != LevelNote || f.Source != SrcBussau {
+		t.Errorf("no bout: %+v", f)
+	}
+}
