@@ -797,7 +797,12 @@ func (p *planner) eventDay(date time.Time, rate float64) dayPlan {
 	fixed := make([]Feed, 0, 3)
 	blockFrom := p.evStart.Add(-90 * time.Minute)
 	if pm := p.preEventMeal(); pm != nil {
-		p.plan.PreEventMeal = pm
+		if p.plan.PreEventMeal == nil || pm.At.Format("2006-01-02") == d.Date {
+			// A meal on the day before keeps what its day made of it (a
+			// feed override) when this day is rebuilt; one on this day is
+			// overridden again as the day is built.
+			p.plan.PreEventMeal = pm
+		}
 		fixed = append(fixed, Feed{At: pm.At, Label: labelPreEvent, ChoG: pm.ChoG, ProteinG: math.Round(0.5 * gProteinMeal.Min * mass)})
 		blockFrom = pm.At.Add(-90 * time.Minute)
 	}

@@ -102,3 +102,37 @@ func TestLateEventRecoveryFeedOnTheNextDay(t *testing.T) {
 		t.Errorf("no recovery feed on %s: %+v", next, d.Feeds)
 	}
 }
+
+func TestPreEventMealOverrideOnTheEveningBefore(t *testing.T) {
+	// A dietitian moves the evening-before pre-event meal of a 00:30 start
+	// to 22:00 with 150 g: pre_event_meal says the same as the feed, and it
+	// is checked against ACSM/AND/DC 2016 (1–4 g/kg, 1–4 h before). A race
+	// plan on usual stores, so the in-event rate is settled above the band's
+	// floor and the event day is built twice.
+	req := loadRequest(t, "marathon-loading.json")
+	req.Kind, req.Protocol, req.Overrides = KindRace, "", nil
+	req.Event.IntensityPctVO2max = ptr(85.0)
+	st := req.Event.StartsAt
+	req.Event.StartsAt = time.Date(st.Year(), st.Month(), st.Day(), 0, 30, 0, 0, st.Location())
+	p := mustCompute(t, req)
+	eve, _ := preMealFeed(t, p)
+	idx := -1
+	for i, f := range eve.Feeds {
+		if f.Label == labelPreEvent {
+			idx = i
+		}
+	}
+	req.FeedOverrides = []FeedOverride{{Date: eve.Date, Index: idx, At: "22:00", ChoG: ptr(150.0)}}
+	p = mustCompute(t, req)
+	if p.DuringEvent.ChoGPerH <= 60 {
+		t.Fatalf("in-event %g g/h: the event day was not rebuilt", p.DuringEvent.ChoGPerH)
+	}
+	_, f := preMealFeed(t, p)
+	pm := p.PreEventMeal
+	if f.ChoG != 150 || f.At.Format("15:04") != "22:00" || !pm.At.Equal(f.At) || pm.ChoG != 150 || pm.HoursBefore != 2.5 {
+		t.Errorf("feed %+v, pre_event_meal %+v", f, pm)
+	}
+	if fd := oneFinding(t, p, "pre-event-meal", "pre_event_meal"); fd.Level != LevelOK {
+		t.Errorf("150 g (2.6 g/kg) 2.5 h before: %+v", fd)
+	}
+}
