@@ -353,8 +353,15 @@ func score(items []Item, need Need, tol float64) float64 {
 		sum += it.ChoG
 	}
 	s := math.Abs(sum-need.ChoG)/tol + perFood*float64(len(items)-1)
+	// Two portions of a food at one sitting cost nothing; an in-event total
+	// reads better as a mix than as one gel after another, so there only
+	// one portion an hour is free.
+	free := 2.0
+	if sittings(need) > 1 {
+		free = 1
+	}
 	for _, it := range items {
-		s += 0.3 * math.Max(0, math.Ceil(it.Portions/sittings(need))-2)
+		s += 0.3 * math.Max(0, math.Ceil(it.Portions/sittings(need))-free)
 		if it.Portions != math.Trunc(it.Portions) {
 			s += 0.1
 		}
@@ -465,19 +472,20 @@ func closest(amounts []Item, restG float64) Item {
 }
 
 // SuggestDay suggests foods for the feeds of one day in order, steering each
-// feed away from the foods of the one before it so that a day is not a
-// single food eaten five times. ok[i] tells whether feed i got a suggestion.
+// feed away from the foods of the two before it so that a day, or a
+// repletion window of feeds every 30 min, is not one or two foods over and
+// over. ok[i] tells whether feed i got a suggestion.
 func SuggestDay(foods []Food, needs []Need) ([]Suggestion, []bool) {
 	out := make([]Suggestion, len(needs))
 	oks := make([]bool, len(needs))
-	var prev []int64
 	for i, n := range needs {
-		n.Avoid = append(append([]int64(nil), n.Avoid...), prev...)
-		out[i], oks[i] = Suggest(foods, n)
-		prev = prev[:0]
-		for _, it := range out[i].Items {
-			prev = append(prev, it.Food.ID)
+		n.Avoid = append([]int64(nil), n.Avoid...)
+		for j := max(0, i-2); j < i; j++ {
+			for _, it := range out[j].Items {
+				n.Avoid = append(n.Avoid, it.Food.ID)
+			}
 		}
+		out[i], oks[i] = Suggest(foods, n)
 	}
 	return out, oks
 }
