@@ -26,14 +26,18 @@
 //     very high 8–12 g/kg/day), the target on one monotone line through the
 //     load kept inside the band; protein 1.6 g/kg; fat not below 20% of
 //     energy, filling an energy target of 45 kcal/kg FFM plus exercise when
-//     fat-free mass is known; default eating times; whole-gram splitting
-//     that adds up exactly.
+//     fat-free mass is known, and carbohydrate raised inside the band when
+//     fat at 35% still leaves energy availability under 45; default eating
+//     times (the eating occasions count every feed of the day, protocol
+//     feeds included); whole-gram splitting that adds up exactly.
 //   - compute.go: the four kinds. loading: the taper (default 7 days) on
 //     training-load targets, the protocol's load days (two-day 10.5, one-day
 //     and three-day 10 g/kg, low-fibre advice), the event day with the
 //     pre-event meal (1 g/kg per hour before, 1–4 h, 3 h unless that is
-//     before 05:00) and in-event fuelling, and the day after on recovery
-//     targets. race: the event day alone. repletion: under 8 h between
+//     in the night hours before 05:00) and in-event fuelling, and the day
+//     after on recovery targets. race: the event day, with the day before
+//     or after when a pre-event meal or recovery feed falls on it; every
+//     feed is listed on the day it falls on. repletion: under 8 h between
 //     sessions, 1.1 g/kg/h for the first 4 h (or until the next start) in
 //     feeds every 30 min with 0.3 g/kg protein first, then daily needs;
 //     8 h or more, daily targets. week: N days of training-load targets.
@@ -48,11 +52,15 @@
 //     first-order gut emptying, a first-pass liver share, resting and
 //     daily-living carbohydrate use that scales with the stores (met by
 //     what is absorbed, else by liver, muscle and fat, so the intake sets
-//     where stores settle), rate-limited muscle synthesis (peak 8 mmol/kg/h just after
+//     where stores settle; the fasting liver loses a third to a half
+//     overnight and slows near a floor, gluconeogenesis sparing it in
+//     exercise), rate-limited muscle synthesis (peak 8 mmol/kg/h just after
 //     exercise, a third of that rested, slowing as stores fill towards 220
 //     mmol/kg), exercise use from energy × carbohydrate share with intake
 //     covering at most about 35% at hard efforts; the stores run out when
-//     working muscle and liver are both empty. It gives the state at the
+//     working muscle and liver are both (nearly) empty. A simulation starts
+//     at midnight from typical muscle glycogen and the fed liver a usual
+//     day of meals leaves. It gives the state at the
 //     start line, the distance and time at which the stores would run out
 //     with and without the in-event intake, the comparison with the usual
 //     intake, and the body-mass gain (glycogen + 3 g water per g).

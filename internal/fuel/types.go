@@ -28,7 +28,11 @@ type Request struct {
 	StartDate string `json:"start_date,omitempty" validate:"omitempty,datetime=2006-01-02"`
 	// Days is, for week, the number of days (default 7).
 	Days int `json:"days,omitempty" validate:"gte=0,lte=28"`
-	// EatingOccasions is the default number of eating occasions a day.
+	// EatingOccasions is the default number of eating occasions a day
+	// (default 5, at least 6 on load days). They count every feed of the
+	// day: the pre-event meal, the in-event fuelling, recovery feeds and a
+	// run of speedy refuelling feeds each count as one; a day that needs
+	// more than asked keeps its protocol feeds and a finding says so.
 	EatingOccasions int `json:"eating_occasions,omitempty" validate:"gte=0,lte=10"`
 	// TimeZone is the IANA zone for feed times; by default the offset of
 	// event.starts_at or session_end.
@@ -70,6 +74,7 @@ type TrainingSession struct {
 }
 
 // DayOverride is a dietitian's change to one day's targets.
+// EatingOccasions counts the day's feeds as Request.EatingOccasions does.
 type DayOverride struct {
 	Date            string   `json:"date" validate:"required,datetime=2006-01-02"`
 	ChoGPerKg       *float64 `json:"cho_g_per_kg,omitempty" validate:"omitempty,gte=0,lte=20"`
@@ -157,7 +162,9 @@ type Feed struct {
 	Overridden bool    `json:"overridden"`
 }
 
-// PreEventMeal is the meal 1–4 h before the start.
+// PreEventMeal is the meal 1–4 h before the start. Before a start just
+// after midnight it falls on the evening before, and is listed among that
+// day's feeds.
 type PreEventMeal struct {
 	At          time.Time `json:"at"`
 	HoursBefore float64   `json:"hours_before"`
