@@ -426,7 +426,11 @@ func FoodForm(f forms.Form, id int64) templ.Component {
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = Checkbox(f, "contains_gluten", "Contains gluten: wheat, barley, rye, or oats not certified gluten-free (left out of suggestions for clients with coeliac disease or gluten recorded in their cautions)").Render(ctx, templ_7745c5c3_Buffer)
+		templ_7745c5c3_Err = Checkbox(f, "contains_gluten", "Contains gluten").Render(ctx, templ_7745c5c3_Buffer)
+		if templ_7745c5c3_Err != nil {
+			return templ_7745c5c3_Err
+		}
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 43, "<p class=\"muted\">Wheat, barley, rye, or oats not certified gluten-free, and foods made from them. Left out of the suggestions for clients whose recorded cautions mention coeliac disease or gluten.</p>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
@@ -434,7 +438,7 @@ func FoodForm(f forms.Form, id int64) templ.Component {
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 43, "<button type=\"submit\">Save food</button> <a href=\"/foods\" class=\"button secondary\">Cancel</a></form>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 44, "<button type=\"submit\">Save food</button> <a href=\"/foods\" class=\"button secondary\">Cancel</a></form>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
