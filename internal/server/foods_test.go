@@ -229,15 +229,21 @@ func TestFoodsEditWithValidation(t *testing.T) {
 // FuzzDecodeFood: the foods form never panics, and whatever it accepts is
 // inside the limits it promises.
 func FuzzDecodeFood(f *testing.F) {
-	f.Add("Gel", "60", "0", "0", "0", "240", "1 sachet (40 g)", "40", "label", "")
-	f.Add("x", "1e3", "NaN", "-0", "0,5", "Inf", "", "0", "", "on")
-	f.Add("Rice", "78.24", "7.94", "0.52", "2.81", "356.4", "¼ cup", "50", "A015", "")
-	f.Fuzz(func(t *testing.T, name, cho, prot, fat, fibre, kcal, portion, portionG, source, confirmed string) {
+	f.Add("Gel", "60", "0", "0", "0", "240", "1 sachet (40 g)", "40", "label", "", "")
+	f.Add("x", "1e3", "NaN", "-0", "0,5", "Inf", "", "0", "", "on", "maybe")
+	f.Add("Rice", "78.24", "7.94", "0.52", "2.81", "356.4", "¼ cup", "50", "A015", "", "")
+	f.Add("Wheat flour, refined", "74.27", "10.36", "0.76", "2.76", "351.8", "flour for 1 flatbread (30 g)", "30", "A018", "", "on")
+	f.Fuzz(func(t *testing.T, name, cho, prot, fat, fibre, kcal, portion, portionG, source, confirmed, gluten string) {
 		v := url.Values{"name": {name}, "carbohydrate_g": {cho}, "protein_g": {prot}, "fat_g": {fat}, "fibre_g": {fibre},
-			"energy_kcal": {kcal}, "portion_name": {portion}, "portion_g": {portionG}, "source": {source}, "energy_confirmed": {confirmed}}
+			"energy_kcal": {kcal}, "portion_name": {portion}, "portion_g": {portionG}, "source": {source}, "energy_confirmed": {confirmed},
+			"contains_gluten": {gluten}}
 		fd, form := decodeFood(v)
 		if form.Has() {
 			return
+		}
+		// A checkbox sends "on"; nothing else a person can send marks gluten.
+		if g := strings.TrimSpace(gluten); fd.ContainsGluten != (g == "on" || g == "true" || g == "1" || g == "yes") {
+			t.Fatalf("contains_gluten %q decoded as %v", gluten, fd.ContainsGluten)
 		}
 		for _, x := range []float64{fd.CarbohydrateG, fd.ProteinG, fd.FatG, fd.FibreG} {
 			if !(x >= 0 && x <= 100) {
