@@ -144,6 +144,7 @@ var Guidelines = []Guideline{
 	{"model.daily-muscle", "share of uncovered resting and daily-living carbohydrate use drawn from muscle glycogen (the rest from fat)", 0.3, 0.3, "share", SrcModel},
 	{"model.liver-share", "share of absorbed carbohydrate (after resting use) the liver takes first", 0.3, 0.3, "share", SrcModel},
 	{"fat.upper", "fat share of energy used at most when filling an energy target", 0.35, 0.35, "share of energy", SrcCommon},
+	{"fat.upper-event", "fat share of energy used at most on the event day itself: carbohydrate gets the room and fat is kept moderate around racing", 0.25, 0.25, "share of energy", SrcCommon},
 	{"model.rest-cho-ox", "resting and daily-living carbohydrate use at typical stores, scaled in proportion to stores / typical so intake sets the level stores settle at", 0.17, 0.17, "g/kg/h", SrcModel},
 	{"model.resynthesis-peak", "peak synthesis rate used (top of 5–8), at depleted stores just after exercise", 8, 8, "mmol/kg wet muscle/h", SrcModel},
 	{"model.cover-easy", "share of carbohydrate use intake can cover at easy efforts (40% VO2max and below); falls to 0.35 at 67% VO2max (≈80% of maximum heart rate)", 0.6, 0.6, "share", SrcModel},
@@ -262,6 +263,7 @@ var (
 	gLiverFloor      = guideline("model.liver-floor")
 	gGluconeogenesis = guideline("model.gluconeogenesis")
 	gFatUpper        = guideline("fat.upper")
+	gFatUpperEvent   = guideline("fat.upper-event")
 	gOtherRate       = guideline("model.other-muscle-rate")
 	gResynthPeak     = guideline("model.resynthesis-peak")
 	gCoverEasy       = guideline("model.cover-easy")

@@ -113,8 +113,10 @@ type sessionInfo struct {
 // 1.6 g/kg (inside 1.2–2.0). When fat-free mass and exercise energy are
 // known, energy aims at adequate energy availability (45 kcal/kg FFM/day
 // plus the exercise), with fat filling the gap between 20% (22% on load
-// days) and 35% of energy; otherwise fat is 25% of energy (22% on load
-// days). Energy is the Atwater sum of the rounded grams.
+// days) and 35% of energy — 25% on the event day itself, where the room
+// belongs to carbohydrate and a heavy fat load sits badly in the gut;
+// otherwise fat is 25% of energy (22% on load days). Energy is the Atwater
+// sum of the rounded grams.
 func macros(d *Day, massKg, ffmKg, exKcal float64, loadDay bool) {
 	d.ProteinG = math.Round(gProteinTarget.Min * massKg)
 	floor := gFatShare.Max
@@ -125,8 +127,12 @@ func macros(d *Day, massKg, ffmKg, exKcal float64, loadDay bool) {
 	share := floor
 	if ffmKg > 0 {
 		target := gEAAdequate.Min*ffmKg + exKcal
+		upper := gFatUpper.Min
+		if d.Role == RoleEvent {
+			upper = gFatUpperEvent.Min
+		}
 		if want := 1 - nonFat/target; want > share {
-			share = math.Min(want, gFatUpper.Min)
+			share = math.Min(want, math.Max(upper, share))
 		}
 		if share < gFatFloor.Min+0.02 {
 			share = gFatFloor.Min + 0.02

@@ -133,3 +133,27 @@ func TestScheduleTimes(t *testing.T) {
 		t.Errorf("clockOn: %s", got)
 	}
 }
+
+// On the event day fat stays between the 20% floor (ACSM/AND/DC 2016) and a
+// moderate quarter of energy (common practice: carbohydrate gets the room on
+// race day), even when energy availability then falls short — that shortfall
+// is reported as a note, not filled with fat.
+func TestEventDayFatStaysModerate(t *testing.T) {
+	for _, name := range []string{"marathon-loading.json", "cyclist-5h-race.json", "night-trail-race.json"} {
+		p := mustCompute(t, loadRequest(t, name))
+		seen := false
+		for _, d := range p.Days {
+			if d.Role != RoleEvent {
+				continue
+			}
+			seen = true
+			share := 9 * d.FatG / d.EnergyKcal
+			if share < 0.20 || share > 0.255 {
+				t.Errorf("%s %s: fat %g g is %.1f%% of %g kcal, want 20–25%%", name, d.Date, d.FatG, 100*share, d.EnergyKcal)
+			}
+		}
+		if !seen {
+			t.Errorf("%s: no event day", name)
+		}
+	}
+}
