@@ -151,7 +151,8 @@ func (p *planner) finish() {
 			*p.plan.ExpectedMassGainKg, gWater.Min)
 	}
 	for _, c := range p.req.Cautions {
-		c = strings.TrimSpace(c)
+		// The sentence adds its own full stop.
+		c = strings.TrimRight(strings.TrimSpace(c), ".;, ")
 		if c == "" {
 			continue
 		}

@@ -582,6 +582,13 @@ func TestWeekPlanAndCautions(t *testing.T) {
 	if f.Level != LevelCaution || !strings.Contains(f.Message, "coeliac disease") {
 		t.Errorf("caution finding %+v", f)
 	}
+	// A caution typed with its own full stop reads as one sentence.
+	req2 := loadRequest(t, "training-week.json")
+	req2.Cautions = []string{"Gut upset after gels."}
+	f = oneFinding(t, mustCompute(t, req2), "client-caution", "plan")
+	if strings.Contains(f.Message, "..") || !strings.HasPrefix(f.Message, "Recorded caution: Gut upset after gels. This client") {
+		t.Errorf("caution with its own full stop: %q", f.Message)
+	}
 	if p.Glycogen == nil || len(p.Glycogen.Curve) < 7*24 {
 		t.Errorf("week glycogen curve missing")
 	}
