@@ -13,9 +13,12 @@
 -- +goose Up
 ALTER TABLE foods ADD COLUMN contains_gluten boolean NOT NULL DEFAULT false;
 
+-- Rows a practice has already added are matched by name (whole words, so
+-- buckwheat is not wheat), except those that say they are gluten-free.
 UPDATE foods SET contains_gluten = true
 WHERE source IN ('A018', 'A019', 'A022', 'A023')
-   OR name ~* '\m(wheat|semolina|suji|sooji|rava|vermicelli|maida|atta|barley|rye|oats?|oatmeal|spelt|bulgur|couscous|seitan)\M';
+   OR (name ~* '\m(wheat|semolina|suji|sooji|rava|vermicelli|maida|atta|barley|rye|oats?|oatmeal|muesli|spelt|bulgur|couscous|seitan|bread|pasta)\M'
+       AND name !~* 'gluten[- ]?free');
 
 -- +goose Down
 ALTER TABLE foods DROP COLUMN contains_gluten;
