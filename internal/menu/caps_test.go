@@ -273,3 +273,36 @@ func TestInEventTotalCapsPerHour(t *testing.T) {
 		}
 	}
 }
+
+// Snacks between meals take foods that are ready to eat: from the IFCT 2017
+// extract (Indian Food Composition Tables 2017 (Longvah T et al., National
+// Institute of Nutrition, Hyderabad)) fruit, dried fruit, jaggery and milk
+// rather than uncooked rice, flour or dal. Without the preference some
+// suggestions are raw staples, so the check can fail.
+func TestSnacksReadyToEat(t *testing.T) {
+	foods := loadIFCT(t)
+	raw := 0
+	for target := 10.0; target <= 80; target += 5 {
+		if s, ok := Suggest(foods, Need{ChoG: target}); ok {
+			for _, it := range s.Items {
+				if !readyToEat(it.Food) {
+					raw++
+				}
+			}
+		}
+		s, ok := Suggest(foods, Need{ChoG: target, Ready: true})
+		if !ok {
+			t.Errorf("%v g snack: no suggestion", target)
+			continue
+		}
+		checkWithin(t, s, target)
+		for _, it := range s.Items {
+			if !readyToEat(it.Food) {
+				t.Errorf("%v g snack: %s needs cooking", target, it.Food.Name)
+			}
+		}
+	}
+	if raw == 0 {
+		t.Error("no suggestion without the preference was a raw staple; the check proves nothing")
+	}
+}

@@ -46,6 +46,8 @@ type Need struct {
 	// PreferOnTheMove tries drinks and portable foods first and falls back to
 	// the whole list (feeds every 15–60 min of a repletion window).
 	PreferOnTheMove bool
+	// Ready prefers foods that are ready to eat (snacks between meals).
+	Ready bool
 	// Hours is how long a feed is spread over when that is more than one
 	// sitting: the in-event total is taken across the whole event, so the
 	// caps below apply per hour, and drinks at about 0.75 L an hour. Zero
@@ -243,13 +245,11 @@ func candidates(foods []Food, need Need) []Food {
 	pool = kept
 	fit := func(f Food) float64 {
 		v := math.Abs(math.Log(2 * choPerPortion(f) / need.ChoG))
-		if wantsReady(need) {
-			if !f.Practice {
-				v += 0.5
-			}
-			if !readyToEat(f) {
-				v += 1
-			}
+		if wantsReady(need) && !f.Practice {
+			v += 0.5
+		}
+		if (wantsReady(need) || need.Ready) && !readyToEat(f) {
+			v += 1
 		}
 		return v
 	}
@@ -368,13 +368,11 @@ func score(items []Item, need Need, tol float64) float64 {
 		if need.LowFibre {
 			s += 0.3 * it.FibreG / (LowFibreRatio * need.ChoG)
 		}
-		if wantsReady(need) {
-			if !it.Food.Practice {
-				s += 0.15
-			}
-			if !readyToEat(it.Food) {
-				s += 0.4
-			}
+		if wantsReady(need) && !it.Food.Practice {
+			s += 0.15
+		}
+		if (wantsReady(need) || need.Ready) && !readyToEat(it.Food) {
+			s += 0.4
 		}
 	}
 	return s

@@ -57,7 +57,8 @@ func (o Options) apply(n Need) Need {
 // PlanSuggestions makes the food suggestions of every feed of a plan, by
 // FeedKey: day feeds in order (low-fibre on the days the plan marks so, on the
 // move for the in-event share of the event day, drinks and portable foods
-// first for the recovery and refuel feeds after a session), the pre-event meal
+// first for the recovery and refuel feeds after a session, ready-to-eat foods
+// for snacks), the pre-event meal
 // (low-fibre), and the repletion feeds (drinks and portable foods first:
 // they come every 15–60 min, soon after a session). Where nothing fits a
 // day or repletion feed, its text is NoFit. opts, at most one, are the
@@ -76,7 +77,8 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 		needs := make([]Need, len(d.Feeds))
 		for i, f := range d.Feeds {
 			needs[i] = o.apply(Need{ChoG: f.ChoG, LowFibre: d.LowFibre, OnTheMove: strings.Contains(f.Label, "during"),
-				PreferOnTheMove: strings.Contains(f.Label, "refuel") || strings.Contains(f.Label, "recovery")})
+				PreferOnTheMove: strings.Contains(f.Label, "refuel") || strings.Contains(f.Label, "recovery"),
+				Ready:           strings.Contains(f.Label, "snack")})
 			if needs[i].OnTheMove && plan.DuringEvent != nil {
 				needs[i].Hours = plan.DuringEvent.DurationMin / 60 // the in-event total
 			}
