@@ -173,6 +173,21 @@ func TestGelCap(t *testing.T) {
 			t.Errorf("%v gels in one feed", it.Portions)
 		}
 	}
+	// 37 g from gels and banana: 1 gel (25 g) and half a banana (11.8 g)
+	// make 36.8 g; half a gel is never suggested, since a sachet is taken
+	// whole once opened (common practice).
+	for _, target := range []float64{12, 37, 50} {
+		s, ok := Suggest([]Food{gel, banana}, Need{ChoG: target, OnTheMove: true})
+		if !ok {
+			t.Fatalf("%v g: no suggestion", target)
+		}
+		checkWithin(t, s, target)
+		for _, it := range s.Items {
+			if it.Food.ID == gel.ID && it.Portions != math.Trunc(it.Portions) {
+				t.Errorf("%v g: %v gels", target, it.Portions)
+			}
+		}
+	}
 }
 
 // Coconut water, 3.16 g carbohydrate per 100 g (IFCT 2017 K002), in 500 g

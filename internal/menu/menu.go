@@ -129,8 +129,14 @@ var gelWord = regexp.MustCompile(`(?i)\bgels?\b`)
 func isGel(f Food) bool { return gelWord.MatchString(f.Name) }
 
 // readyToEat: drinks, foods to eat on the move and the practice's own
-// products need no kitchen; raw staples such as uncooked rice or flour do.
-func readyToEat(f Food) bool { return f.Liquid || f.Portable || f.Practice }
+// products need no kitchen; raw staples such as uncooked rice or flour do,
+// and so does a product whose household portion is weighed dry or uncooked
+// (rolled oats), the foods list's way of saying so.
+func readyToEat(f Food) bool {
+	return f.Liquid || f.Portable || f.Practice && !weighedRaw.MatchString(f.PortionName)
+}
+
+var weighedRaw = regexp.MustCompile(`(?i)\b(dry|uncooked|raw|flour)\b`)
 
 // wantsReady tells the feeds that come during or soon after exercise, where
 // ready-to-eat foods and the practice's own products are preferred.
@@ -313,17 +319,23 @@ func drinkLimit(need Need) float64 {
 	return maxDrinkGrams
 }
 
-// steps lists the allowed portion counts of a food: 0.5, 1, 1.5 … within
-// the caps on portions and on grams (half a portion is always allowed).
+// steps lists the allowed portion counts of a food: 0.5, 1, 1.5 … (whole
+// sachets of a gel) within the caps on portions and on grams (the smallest
+// step is always allowed).
 func steps(f Food, need Need) []float64 {
 	n := sittings(need)
 	limitG := maxItemGrams * n
 	if f.Liquid {
 		limitG = drinkLimit(need)
 	}
+	// A gel sachet is taken whole once opened (common practice).
+	first, step := 0.5, 0.5
+	if isGel(f) {
+		first, step = 1, 1
+	}
 	var out []float64
-	for p := 0.5; p <= MaxPortions(f)*n; p += 0.5 {
-		if p*f.PortionG > limitG && p > 0.5 {
+	for p := first; p <= MaxPortions(f)*n; p += step {
+		if p*f.PortionG > limitG && p > first {
 			break
 		}
 		out = append(out, p)
