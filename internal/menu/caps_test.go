@@ -321,3 +321,43 @@ func TestSnacksReadyToEat(t *testing.T) {
 		t.Error("no suggestion without the preference was a raw staple; the check proves nothing")
 	}
 }
+
+// Pre-event meal of 150 g from drinks alone: sugarcane juice (IFCT 2017 I002,
+// 13.11 g per 100 g, glass of 250 g, 32.8 g) and buffalo milk (IFCT 2017 L001,
+// 8.39 g per 100 g, glass of 250 g, 21.0 g). Four glasses of juice and one of
+// milk, 1.25 L, would make 152 g; with at most 0.5 L to drink in the meal
+// (two glasses, at most 65.6 g) there is no match, and with raw milled rice
+// (IFCT 2017 A015, ¼ cup of 50 g, 39.1 g) the meal is mostly eaten.
+func TestPreEventMealLittleToDrink(t *testing.T) {
+	cane := ifctRow(t, "I002", "1 glass (250 g)", 250)
+	milk := ifctRow(t, "L001", "1 glass (250 g)", 250)
+	rice := ifctRow(t, "A015", "¼ cup, uncooked (50 g)", 50)
+	at := time.Date(2027, 3, 7, 5, 0, 0, 0, time.UTC)
+	plan := fuel.Plan{TimeZone: "UTC", PreEventMeal: &fuel.PreEventMeal{At: at, ChoG: 150}}
+	key := FeedKey("pre_event", "2027-03-07", 0)
+	if s, ok := Suggest([]Food{cane, milk}, Need{ChoG: 150, LowFibre: true}); !ok {
+		t.Fatal("without a drinks cap for meals, juice and milk should fit 150 g")
+	} else {
+		checkWithin(t, s, 150)
+	}
+	if got, ok := PlanSuggestions(plan, []Food{cane, milk})[key]; ok {
+		t.Errorf("pre-event meal from drinks alone: %q; want none", got)
+	}
+	s, ok := Suggest([]Food{cane, milk, rice}, Need{ChoG: 150, LowFibre: true, DrinksG: 500})
+	if !ok {
+		t.Fatal("no pre-event suggestion with rice on the list")
+	}
+	checkWithin(t, s, 150)
+	drinks := 0.0
+	for _, it := range s.Items {
+		if it.Food.Liquid {
+			drinks += it.Grams
+		}
+	}
+	if drinks > 500 {
+		t.Errorf("%q: %.0f g to drink", s.Text(), drinks)
+	}
+	if got := PlanSuggestions(plan, []Food{cane, milk, rice})[key]; !strings.Contains(got, "Rice, raw, milled") {
+		t.Errorf("pre-event meal with rice on the list: %q", got)
+	}
+}

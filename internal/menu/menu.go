@@ -46,6 +46,8 @@ type Need struct {
 	// PreferOnTheMove tries drinks and portable foods first and falls back to
 	// the whole list (feeds every 15–60 min of a repletion window).
 	PreferOnTheMove bool
+	// DrinksG, when set, lowers the cap on drinks in all (g ≈ ml).
+	DrinksG float64
 	// Ready prefers foods that are ready to eat (snacks between meals).
 	Ready bool
 	// Hours is how long a feed is spread over when that is more than one
@@ -313,10 +315,14 @@ func sittings(need Need) float64 {
 
 // drinkLimit is the most grams of drinks in all for a need.
 func drinkLimit(need Need) float64 {
+	limit := float64(maxDrinkGrams)
 	if n := sittings(need); n > 1 {
-		return math.Max(maxDrinkGrams, drinkGramsPerHour*need.Hours)
+		limit = math.Max(maxDrinkGrams, drinkGramsPerHour*need.Hours)
 	}
-	return maxDrinkGrams
+	if need.DrinksG > 0 && need.DrinksG < limit {
+		limit = need.DrinksG
+	}
+	return limit
 }
 
 // steps lists the allowed portion counts of a food: 0.5, 1, 1.5 … (whole

@@ -16,6 +16,9 @@ func FeedKey(kind, date string, index int) string { return fmt.Sprintf("%s:%s:%d
 // the tolerance and the caps: said plainly rather than forcing a bad one.
 const NoFit = "No good match in the foods list — add a product."
 
+// preEventDrinksG caps the drinks of the pre-event meal, g (≈ ml).
+const preEventDrinksG = 500
+
 // Options are what a client's record asks of all of a plan's suggestions.
 type Options struct {
 	GlutenFree bool // see GlutenFreeFor
@@ -59,7 +62,7 @@ func (o Options) apply(n Need) Need {
 // move for the in-event share of the event day, drinks and portable foods
 // first for the recovery and refuel feeds after a session, ready-to-eat foods
 // for snacks), the pre-event meal
-// (low-fibre), and the repletion feeds (drinks and portable foods first:
+// (low-fibre, little to drink), and the repletion feeds (drinks and portable foods first:
 // they come every 15–60 min, soon after a session). Where nothing fits a
 // day or repletion feed, its text is NoFit. opts, at most one, are the
 // client's (see OptionsFor).
@@ -94,7 +97,10 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 		}
 	}
 	if m := plan.PreEventMeal; m != nil {
-		if sg, ok := Suggest(foods, o.apply(Need{ChoG: m.ChoG, LowFibre: true})); ok {
+		// A meal 1–4 h before the start is mostly eaten, not drunk: drinks
+		// in it are kept to about 0.5 L so the stomach has emptied by the
+		// start (this project's own margin).
+		if sg, ok := Suggest(foods, o.apply(Need{ChoG: m.ChoG, LowFibre: true, DrinksG: preEventDrinksG})); ok {
 			out[FeedKey("pre_event", m.At.In(loc).Format(time.DateOnly), 0)] = sg.Text()
 		}
 	}
