@@ -440,8 +440,15 @@ func search(pool []Food, need Need, tol float64) ([]Item, bool) {
 	// is tried only when it could still beat the best so far.
 	worthTrying := func(n int) bool { return best == nil || best.score > perFood*float64(n-1) }
 	buf := make([]Item, 3)
+	kinds := make([]string, len(pool))
+	for i, f := range pool {
+		kinds[i] = kind(f)
+	}
 	for i := 0; i < len(pool) && worthTrying(2); i++ {
 		for j := i + 1; j < len(pool); j++ {
+			if kinds[i] == kinds[j] {
+				continue
+			}
 			for _, a := range amounts[i] {
 				if a.ChoG >= need.ChoG+tol {
 					break
@@ -454,6 +461,9 @@ func search(pool []Food, need Need, tol float64) ([]Item, bool) {
 	for i := 0; i < len(pool) && worthTrying(3); i++ {
 		for j := i + 1; j < len(pool); j++ {
 			for k := j + 1; k < len(pool); k++ {
+				if kinds[i] == kinds[j] || kinds[i] == kinds[k] || kinds[j] == kinds[k] {
+					continue
+				}
 				for _, a := range amounts[i] {
 					if a.ChoG >= need.ChoG+tol {
 						break
@@ -473,6 +483,15 @@ func search(pool []Food, need Need, tol float64) ([]Item, bool) {
 		return nil, false
 	}
 	return best.items, true
+}
+
+// kind is the first word of a food's name, lower-cased: "rice" for raw,
+// brown and parboiled rice and rice flakes, "milk" for cow's and buffalo
+// milk. Two foods of one kind in a suggestion ("rice and rice") read badly,
+// so a combination takes at most one of each.
+func kind(f Food) string {
+	w, _, _ := strings.Cut(strings.TrimSpace(f.Name), " ")
+	return strings.ToLower(strings.TrimRight(w, ",;:"))
 }
 
 // closest returns the amount (of one food's allowed amounts) whose

@@ -6,6 +6,7 @@ import (
 	"math/rand"
 	"os"
 	"strconv"
+	"strings"
 	"testing"
 )
 
@@ -156,8 +157,8 @@ func TestNoSuggestionForNothing(t *testing.T) {
 
 // Property: every suggestion made adds up to its target within the stated
 // tolerance, has 1–3 distinct foods, a positive amount of each within the
-// caps (at most 4 household portions of a food, at most 1.5 L of drinks), and
-// no gluten food when gluten-free is asked.
+// caps (at most 4 household portions of a food, at most 1.5 L of drinks), one
+// food of a kind, and no gluten food when gluten-free is asked.
 func TestSuggestionsAddUp(t *testing.T) {
 	foods := loadIFCT(t)
 	rng := rand.New(rand.NewSource(4))
@@ -173,6 +174,7 @@ func TestSuggestionsAddUp(t *testing.T) {
 			t.Errorf("%+v: %d items", need, n)
 		}
 		seen := map[int64]bool{}
+		kinds := map[string]bool{}
 		drinks := 0.0
 		for _, it := range s.Items {
 			if seen[it.Food.ID] || !(it.Portions > 0) || !(it.Grams > 0) || it.Portions > 4 {
@@ -184,6 +186,12 @@ func TestSuggestionsAddUp(t *testing.T) {
 			if it.Food.Liquid {
 				drinks += it.Grams
 			}
+			// One food of a kind: not raw and brown rice together.
+			first := strings.ToLower(strings.Trim(strings.Fields(it.Food.Name)[0], ","))
+			if kinds[first] {
+				t.Errorf("%+v: %q has two foods of one kind", need, s.Text())
+			}
+			kinds[first] = true
 			seen[it.Food.ID] = true
 		}
 		if drinks > 1500 {
