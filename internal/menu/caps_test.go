@@ -287,6 +287,13 @@ func TestInEventTotalCapsPerHour(t *testing.T) {
 			t.Errorf("%.0f g of drink over 3 h", it.Grams)
 		}
 	}
+	// 150 g over 3 h could be six gels (150 g) alone; a mix of drink and
+	// gels is suggested instead, being easier to keep taking over the hours
+	// than one product (common practice).
+	s, ok = Suggest(foods, Need{ChoG: 150, OnTheMove: true, Hours: 3})
+	if !ok || len(s.Items) < 2 {
+		t.Errorf("150 g over 3 h: %q, %v; want drink and gels", s.Text(), ok)
+	}
 }
 
 // Snacks between meals take foods that are ready to eat: from the IFCT 2017

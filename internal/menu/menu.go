@@ -352,6 +352,16 @@ func steps(f Food, need Need) []float64 {
 // perFood is the score's cost of each food beyond the first.
 const perFood = 0.3
 
+// foodCost is perFood, but less for an in-event total, where a mix of
+// drinks, gels and bars over the hours is easier to keep taking than one
+// product (common practice).
+func foodCost(need Need) float64 {
+	if sittings(need) > 1 {
+		return perFood / 3
+	}
+	return perFood
+}
+
 type scored struct {
 	items []Item
 	score float64
@@ -370,7 +380,7 @@ func score(items []Item, need Need, tol float64) float64 {
 	for _, it := range items {
 		sum += it.ChoG
 	}
-	s := math.Abs(sum-need.ChoG)/tol + perFood*float64(len(items)-1)
+	s := math.Abs(sum-need.ChoG)/tol + foodCost(need)*float64(len(items)-1)
 	// Two portions of a food at one sitting cost nothing; an in-event total
 	// reads better as a mix than as one gel after another, so there only
 	// one portion an hour is free.
@@ -436,9 +446,9 @@ func search(pool []Food, need Need, tol float64) ([]Item, bool) {
 			consider([]Item{a})
 		}
 	}
-	// Each extra food costs perFood in the score, so a larger combination
+	// Each extra food costs foodCost in the score, so a larger combination
 	// is tried only when it could still beat the best so far.
-	worthTrying := func(n int) bool { return best == nil || best.score > perFood*float64(n-1) }
+	worthTrying := func(n int) bool { return best == nil || best.score > foodCost(need)*float64(n-1) }
 	buf := make([]Item, 3)
 	kinds := make([]string, len(pool))
 	for i, f := range pool {

@@ -82,6 +82,9 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 			needs[i] = o.apply(Need{ChoG: f.ChoG, LowFibre: d.LowFibre, OnTheMove: strings.Contains(f.Label, "during"),
 				PreferOnTheMove: strings.Contains(f.Label, "refuel") || strings.Contains(f.Label, "recovery"),
 				Ready:           strings.Contains(f.Label, "snack")})
+			if strings.Contains(f.Label, "pre-event") {
+				needs[i].LowFibre, needs[i].DrinksG = true, preEventDrinksG
+			}
 			if needs[i].OnTheMove && plan.DuringEvent != nil {
 				needs[i].Hours = plan.DuringEvent.DurationMin / 60 // the in-event total
 			}
