@@ -14,7 +14,7 @@ var practiceFoods = []store.Food{
 	{Name: "Harbourside sports drink (6 %)", CarbohydrateG: 6, EnergyKcal: 24, PortionName: "1 bottle (500 ml)", PortionG: 500, Liquid: true, Portable: true},
 	{Name: "Harbourside energy gel", CarbohydrateG: 62, FibreG: 0.5, EnergyKcal: 248, PortionName: "1 sachet (40 g)", PortionG: 40, Portable: true},
 	{Name: "Oat and honey bar", CarbohydrateG: 64, ProteinG: 7, FatG: 12, FibreG: 4, EnergyKcal: 392, PortionName: "1 bar (45 g)", PortionG: 45, Portable: true, ContainsGluten: true},
-	{Name: "Recovery shake, made up", CarbohydrateG: 12, ProteinG: 5, FatG: 1, EnergyKcal: 77, PortionName: "1 shaker (400 ml)", PortionG: 400, Liquid: true, Portable: true},
+	{Name: "Recovery shake, made up", CarbohydrateG: 12, ProteinG: 5, FatG: 1, EnergyKcal: 77, PortionName: "1 shaker (400 ml)", PortionG: 400, Liquid: true},
 	{Name: "White bread, sliced", CarbohydrateG: 49, ProteinG: 8.5, FatG: 2.5, FibreG: 2.7, EnergyKcal: 253, PortionName: "1 slice (35 g)", PortionG: 35, ContainsGluten: true},
 	{Name: "Honey", CarbohydrateG: 82, ProteinG: 0.3, FibreG: 0.2, EnergyKcal: 329, PortionName: "1 tablespoon (21 g)", PortionG: 21, Portable: true},
 	{Name: "Rolled oats", CarbohydrateG: 60, ProteinG: 13, FatG: 7, FibreG: 10, EnergyKcal: 355, PortionName: "½ cup, dry (40 g)", PortionG: 40, ContainsGluten: true},

@@ -368,3 +368,31 @@ func TestPreEventMealLittleToDrink(t *testing.T) {
 		t.Errorf("pre-event meal with rice on the list: %q", got)
 	}
 }
+
+// During exercise carbohydrate with little protein and fat is preferred
+// (common practice). 25 g in-event from IFCT 2017 drinks in glasses of 250 g:
+// cow's milk (L002: 4.94 g carbohydrate, 3.26 g protein, 4.48 g fat per
+// 100 g) gives 24.7 g in two glasses, with 38.7 g of protein and fat;
+// sugarcane juice (I002, 13.11 g) and coconut water (K002, 3.16 g) give 24.3 g
+// in half a glass and a glass with under 1 g. The juices are suggested; at
+// rest, with no such preference, the closer milk is.
+func TestInEventLittleProteinAndFat(t *testing.T) {
+	milk := ifctRow(t, "L002", "1 glass (250 g)", 250)
+	cane := ifctRow(t, "I002", "1 glass (250 g)", 250)
+	coconut := ifctRow(t, "K002", "1 glass (250 g)", 250)
+	foods := []Food{milk, cane, coconut}
+	s, ok := Suggest(foods, Need{ChoG: 25, OnTheMove: true})
+	if !ok {
+		t.Fatal("no in-event suggestion")
+	}
+	checkWithin(t, s, 25)
+	for _, it := range s.Items {
+		if it.Food.ID == milk.ID {
+			t.Errorf("in-event: %q has milk", s.Text())
+		}
+	}
+	s, ok = Suggest(foods, Need{ChoG: 25})
+	if !ok || len(s.Items) != 1 || s.Items[0].Food.ID != milk.ID {
+		t.Errorf("at rest: %q, %v; want 2 glasses of milk", s.Text(), ok)
+	}
+}

@@ -371,7 +371,7 @@ type scored struct {
 // tolerance: the distance from the target; a cost per extra food, and per
 // portion beyond two of one food, set so that two foods in two portions
 // each beat one food in four, while three of one is about even with two
-// foods; a little for each half portion; fibre when
+// foods; protein and fat during exercise; a little for each half portion; fibre when
 // low fibre is wanted; and, during and after exercise, a cost for foods
 // that are not the practice's own or not ready to eat. The weights are
 // this project's own.
@@ -387,6 +387,18 @@ func score(items []Item, need Need, tol float64) float64 {
 	free := 2.0
 	if sittings(need) > 1 {
 		free = 1
+	}
+	if need.OnTheMove {
+		// During exercise carbohydrate with little protein and fat sits
+		// easier and empties from the stomach faster (common practice):
+		// a sports drink or gel before a shake or milk.
+		other := 0.0
+		for _, it := range items {
+			other += it.Grams * (it.Food.ProtPer100 + it.Food.FatPer100) / 100
+		}
+		if sum > 0 {
+			s += 0.5 * other / sum
+		}
 	}
 	for _, it := range items {
 		s += 0.3 * math.Max(0, math.Ceil(it.Portions/sittings(need))-free)
