@@ -537,7 +537,9 @@ func SuggestDay(foods []Food, needs []Need) ([]Suggestion, []bool) {
 	oks := make([]bool, len(needs))
 	for i, n := range needs {
 		n.Avoid = append([]int64(nil), n.Avoid...)
-		for j := max(0, i-2); j < i; j++ {
+		// In-event feeds keep the drinks and gels made for them, whatever
+		// the meal before had.
+		for j := max(0, i-2); j < i && !n.OnTheMove; j++ {
 			for _, it := range out[j].Items {
 				n.Avoid = append(n.Avoid, it.Food.ID)
 			}
