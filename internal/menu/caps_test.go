@@ -396,3 +396,21 @@ func TestInEventLittleProteinAndFat(t *testing.T) {
 		t.Errorf("at rest: %q, %v; want 2 glasses of milk", s.Text(), ok)
 	}
 }
+
+// One food of a kind: food-table names (IFCT 2017 A013 "Rice, raw, brown",
+// A015 "Rice, raw, milled"; A018/A019 "Wheat flour, …") share a kind; a
+// practice's products that share only a brand word do not.
+func TestKind(t *testing.T) {
+	same := [][2]string{{"Rice, raw, brown", "Rice, raw, milled"}, {"Wheat flour, refined", "Wheat flour, atta"}, {"Milk, whole, Cow", "Milk, whole, Buffalo"}}
+	differ := [][2]string{{"Seaview sports drink (6 %)", "Seaview energy gel"}, {"Rice, raw, milled", "Rice flakes"}, {"Wheat, semolina", "Wheat flour, atta"}}
+	for _, p := range same {
+		if kind(Food{Name: p[0]}) != kind(Food{Name: p[1]}) {
+			t.Errorf("%q and %q should be one kind", p[0], p[1])
+		}
+	}
+	for _, p := range differ {
+		if kind(Food{Name: p[0]}) == kind(Food{Name: p[1]}) {
+			t.Errorf("%q and %q should be different kinds", p[0], p[1])
+		}
+	}
+}

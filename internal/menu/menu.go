@@ -507,13 +507,14 @@ func search(pool []Food, need Need, tol float64) ([]Item, bool) {
 	return best.items, true
 }
 
-// kind is the first word of a food's name, lower-cased: "rice" for raw,
-// brown and parboiled rice and rice flakes, "milk" for cow's and buffalo
-// milk. Two foods of one kind in a suggestion ("rice and rice") read badly,
-// so a combination takes at most one of each.
+// kind is what a food-table name says before its first comma, lower-cased:
+// "rice" for raw, brown and parboiled rice, "milk" for cow's and buffalo
+// milk, "wheat flour" for atta and refined flour. Two foods of one kind in a
+// suggestion ("rice and rice") read badly, so a combination takes at most
+// one of each. A name without a comma (a practice's product) is its own kind.
 func kind(f Food) string {
-	w, _, _ := strings.Cut(strings.TrimSpace(f.Name), " ")
-	return strings.ToLower(strings.TrimRight(w, ",;:"))
+	k, _, _ := strings.Cut(f.Name, ",")
+	return strings.ToLower(strings.TrimSpace(k))
 }
 
 // closest returns the amount (of one food's allowed amounts) whose

@@ -187,7 +187,7 @@ func TestSuggestionsAddUp(t *testing.T) {
 				drinks += it.Grams
 			}
 			// One food of a kind: not raw and brown rice together.
-			first := strings.ToLower(strings.Trim(strings.Fields(it.Food.Name)[0], ","))
+			first, _, _ := strings.Cut(strings.ToLower(it.Food.Name), ",")
 			if kinds[first] {
 				t.Errorf("%+v: %q has two foods of one kind", need, s.Text())
 			}
