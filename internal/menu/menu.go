@@ -530,7 +530,7 @@ func closest(amounts []Item, restG float64) Item {
 }
 
 // SuggestDay suggests foods for the feeds of one day in order, steering each
-// feed away from the foods (and their kinds) of the two before it so that a day, or a
+// feed away from the foods of the two before it so that a day, or a
 // repletion window of feeds every 30 min, is not one or two foods over and
 // over. ok[i] tells whether feed i got a suggestion.
 func SuggestDay(foods []Food, needs []Need) ([]Suggestion, []bool) {
@@ -540,15 +540,9 @@ func SuggestDay(foods []Food, needs []Need) ([]Suggestion, []bool) {
 		n.Avoid = append([]int64(nil), n.Avoid...)
 		// In-event feeds keep the drinks and gels made for them, whatever
 		// the meal before had.
-		recent := map[string]bool{}
 		for j := max(0, i-2); j < i && !n.OnTheMove; j++ {
 			for _, it := range out[j].Items {
-				recent[kind(it.Food)] = true
-			}
-		}
-		for _, f := range foods {
-			if recent[kind(f)] {
-				n.Avoid = append(n.Avoid, f.ID) // raw after parboiled rice is still rice
+				n.Avoid = append(n.Avoid, it.Food.ID)
 			}
 		}
 		out[i], oks[i] = Suggest(foods, n)
