@@ -615,7 +615,14 @@ func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, 
 		s.ServerError(w, r, err)
 		return
 	}
-	pv := s.planView(c, p, v, versions, MenuFoods(foods))
+	var stored map[string]string
+	if v.Status != store.PlanDraft {
+		if stored, err = s.Store.FeedSuggestions(r.Context(), v.ID); err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
+	}
+	pv := s.planView(c, p, v, versions, MenuFoods(foods), stored)
 	pv.Form = f
 	pv.Notice = notice
 	if !pv.Editable && notice != "" {

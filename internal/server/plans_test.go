@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/json"
 	"errors"
+	"html"
 	"math"
 	"net/http"
 	"net/url"
@@ -630,4 +631,40 @@ func FuzzPlanStart(f *testing.F) {
 			t.Fatalf("accepted form gave a non-field error: %v", err)
 		}
 	})
+}
+
+// A published version shows the food suggestions stored with it — what the
+// client link and the plan sheet show — even after the foods list changes;
+// a draft's are made afresh from the current list.
+func TestPublishedPlanShowsStoredSuggestions(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	cid, pid := loadingPlan(t, a, b)
+	base := "/clients/" + itoa64(cid) + "/plans/" + itoa64(pid)
+	v1 := latestVersion(t, a, pid)
+	b.post(base+"/versions/1", url.Values{"revision": {strconv.Itoa(v1.Revision)}, "action": {"publish"}}).mustRedirect(t, base+"/versions/1")
+
+	ctx := context.Background()
+	var text string
+	if err := a.st.Pool.QueryRow(ctx, `SELECT suggestion FROM plan_feeds WHERE plan_version_id = $1 AND kind = 'day' AND suggestion LIKE '%:%'
+		ORDER BY at LIMIT 1`, v1.ID).Scan(&text); err != nil {
+		t.Fatal(err)
+	}
+	name := strings.SplitN(text, ":", 2)[0]
+	var foodID int64
+	if err := a.st.Pool.QueryRow(ctx, `SELECT id FROM foods WHERE name = $1 AND archived_at IS NULL`, name).Scan(&foodID); err != nil {
+		t.Fatalf("suggested food %q: %v", name, err)
+	}
+	// The shared test database is used by other tests: put the food back.
+	if err := a.st.ArchiveFood(ctx, store.System, foodID); err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() { a.st.UnarchiveFood(ctx, store.System, foodID) })
+
+	b.get(base+"/versions/1").mustContain(t, html.EscapeString(text))
+
+	b.post(base+"/revise", nil).mustRedirect(t, base+"/versions/2")
+	if draft := b.get(base + "/versions/2"); strings.Contains(draft.body, html.EscapeString(name)+":") {
+		t.Errorf("the draft still suggests archived food %q", name)
+	}
 }

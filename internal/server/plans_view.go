@@ -20,7 +20,11 @@ import (
 // formatted, findings placed beside the value each concerns, charts drawn,
 // food suggestions made. No figure is computed here; they all come from the
 // engine's plan.
-func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, versions []store.PlanVersion, foods []menu.Food) web.PlanView {
+//
+// A draft's suggestions are made afresh from the current foods list; a
+// published or superseded version shows the suggestions stored with it
+// (stored), which are what the client link and the plan sheet show too.
+func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, versions []store.PlanVersion, foods []menu.Food, stored map[string]string) web.PlanView {
 	plan := v.Result
 	loc := loadZone(plan.TimeZone)
 	pv := web.PlanView{
@@ -102,7 +106,10 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 	for _, o := range v.Request.FeedOverrides {
 		overriddenFeeds[fmt.Sprintf("%s_%d", o.Date, o.Index)] = true
 	}
-	suggestions := suggestFor(plan, foods, c.Cautions)
+	suggestions := stored
+	if v.Status == store.PlanDraft || suggestions == nil {
+		suggestions = suggestFor(plan, foods, c.Cautions)
+	}
 	pv.SuggestionNote = menu.OptionsFor(c.Cautions).Note()
 	var bars []chart.DayTarget
 	for _, d := range plan.Days {
