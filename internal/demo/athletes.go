@@ -128,7 +128,7 @@ func athletes() []athlete {
 		{
 			key: "trail", name: "Jonah Whitfield", sex: "male", age: 41, birthMonthsAgo: 11, heightCm: 176,
 			sport: "Trail running", unit: "lb", baseKg: 70.5, trendKgPerWeek: -0.12, method: "home scale",
-			cautions: "History of gut upset on long runs (cramping, urgency). Trial any race food in training first; low-fibre choices in the 24 h before long efforts.",
+			cautions: "Coeliac disease: strictly gluten-free.\nHistory of gut upset on long runs (cramping, urgency). Trial any race food in training first; low-fibre choices in the 24 h before long efforts.",
 			notes:    "Enters his body mass in pounds.",
 			week: func(wd time.Weekday, weeksToGo int) []session {
 				switch wd {

@@ -158,6 +158,13 @@ func TestDemoContents(t *testing.T) {
 		t.Errorf("practice foods: %d drinks, %d portable; in-event feeds need both", drinks, portable)
 	}
 
+	// One client has coeliac disease on record, so a demo plan for him shows
+	// gluten-free food suggestions.
+	runner, _ := st.ClientByID(ctx, res.IDs.Clients["trail"])
+	if !strings.Contains(strings.ToLower(runner.Cautions), "coeliac") {
+		t.Fatalf("trail runner cautions = %q", runner.Cautions)
+	}
+
 	// One client has a recorded diabetes caution.
 	tri, _ := st.ClientByID(ctx, res.IDs.Clients["triathlete"])
 	if !strings.Contains(strings.ToLower(tri.Cautions), "type 1 diabetes") {
