@@ -129,6 +129,10 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		}
 		if d.BandMaxGPerKg > 0 {
 			dv.Band = web.Num(d.BandMinGPerKg, 1) + "–" + web.Num(d.BandMaxGPerKg, 1) + " g/kg"
+			if d.Role == fuel.RoleLoad {
+				// The day is checked against the loading range, not its training band.
+				dv.Band = "carbohydrate loading " + dv.Band
+			}
 		}
 		for i, fd := range d.Feeds {
 			fv := web.FeedView{

@@ -545,6 +545,9 @@ func (d *doc) dayTable() {
 		check := ""
 		if day.BandMaxGPerKg > 0 {
 			check = "range " + num(day.BandMinGPerKg, 0) + "–" + num(day.BandMaxGPerKg, 0)
+			if day.Role == fuel.RoleLoad {
+				check = "loading " + num(day.BandMinGPerKg, 0) + "–" + num(day.BandMaxGPerKg, 0)
+			}
 		}
 		gkg := strconv.FormatFloat(day.ChoGPerKg, 'f', 1, 64)
 		if day.Overridden {
