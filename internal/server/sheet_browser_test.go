@@ -13,6 +13,7 @@ import (
 
 	"larder/internal/demo"
 	"larder/internal/fuel"
+	"larder/internal/sheet/sheettest"
 	"larder/internal/store"
 )
 
@@ -68,7 +69,7 @@ func TestBrowserPrintsPlanPage(t *testing.T) {
 		if dir := os.Getenv("LARDER_SHEET_OUT"); dir != "" {
 			_ = os.WriteFile(filepath.Join(dir, "print-"+name+".pdf"), pdf, 0o644)
 		}
-		text, ok := sheetText(t, pdf)
+		text, ok := sheettest.Text(t, pdf)
 		if !ok {
 			t.Skip("pdftotext (poppler-utils) not installed")
 		}

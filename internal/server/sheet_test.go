@@ -8,7 +8,6 @@ import (
 	"net/http"
 	"net/url"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"regexp"
 	"strconv"
@@ -18,6 +17,7 @@ import (
 
 	"larder/internal/fuel"
 	"larder/internal/sheet"
+	"larder/internal/sheet/sheettest"
 	"larder/internal/store"
 )
 
@@ -41,33 +41,6 @@ func (b *browser) getPDF(path string) pdfResponse {
 		disposition: resp.Header.Get("Content-Disposition"), body: body}
 }
 
-var sheetPageObj = regexp.MustCompile(`/Type /Page\b[^s]`)
-
-// sheetPages counts the page objects of a PDF written by fpdf.
-func sheetPages(pdf []byte) int { return len(sheetPageObj.FindAll(pdf, -1)) }
-
-// sheetText extracts a PDF's text with pdftotext (poppler-utils), whitespace
-// folded to single spaces; ok is false when pdftotext is not installed.
-func sheetText(t *testing.T, pdf []byte) (string, bool) {
-	t.Helper()
-	bin, err := exec.LookPath("pdftotext")
-	if err != nil {
-		if os.Getenv("LARDER_TEST_REQUIRE_BROWSER") == "1" {
-			t.Fatal("pdftotext (poppler-utils) is required: ", err)
-		}
-		return "", false
-	}
-	path := filepath.Join(t.TempDir(), "sheet.pdf")
-	if err := os.WriteFile(path, pdf, 0o644); err != nil {
-		t.Fatal(err)
-	}
-	out, err := exec.Command(bin, "-raw", "-enc", "UTF-8", path, "-").Output()
-	if err != nil {
-		t.Fatalf("pdftotext: %v", err)
-	}
-	return strings.Join(strings.Fields(string(out)), " "), true
-}
-
 // mustPDF checks an answer is a PDF of one to three pages.
 func (r pdfResponse) mustPDF(t *testing.T) {
 	t.Helper()
@@ -78,7 +51,7 @@ func (r pdfResponse) mustPDF(t *testing.T) {
 		t.Fatalf("body is not a PDF: %.40q", r.body)
 	}
 	// DESIGN.md: a sheet is one to three pages a clinician can hand over.
-	if n := sheetPages(r.body); n < 1 || n > 3 {
+	if n := sheettest.Pages(r.body); n < 1 || n > 3 {
 		t.Errorf("sheet has %d pages, want 1–3", n)
 	}
 }
@@ -126,8 +99,8 @@ func TestPlanSheet(t *testing.T) {
 	if !regexp.MustCompile(`^inline; filename="plan-sheet-ines-tomas-rios-x-[0-9-]+-v1-DRAFT\.pdf"$`).MatchString(res.disposition) {
 		t.Errorf("draft sheet Content-Disposition = %q", res.disposition)
 	}
-	if text, ok := sheetText(t, res.body); ok {
-		pages := sheetPages(res.body)
+	if text, ok := sheettest.Text(t, res.body); ok {
+		pages := sheettest.Pages(res.body)
 		if n := strings.Count(text, sheet.DraftMark+":"); n != pages {
 			t.Errorf("draft banner on %d of %d pages", n, pages)
 		}
@@ -145,8 +118,8 @@ func TestPlanSheet(t *testing.T) {
 	if !bytes.Contains(res.body, []byte("/MediaBox [0 0 595.28 841.89]")) { // A4, 210 × 297 mm (common practice)
 		t.Error("default sheet is not A4")
 	}
-	if text, ok := sheetText(t, res.body); ok {
-		pages := sheetPages(res.body)
+	if text, ok := sheettest.Text(t, res.body); ok {
+		pages := sheettest.Pages(res.body)
 		want := []string{c.Name, "Lakeside Marathon", "Coeliac disease – gluten-free foods only", "Fainted once after a long run",
 			"Recorded caution for " + c.Name, strings.Join(strings.Fields(fuel.Caution), " "), "version 1", "published",
 			"page " + strconv.Itoa(pages) + " of " + strconv.Itoa(pages), "Day by day", "Findings"}
@@ -191,14 +164,14 @@ func TestPlanSheet(t *testing.T) {
 	// Revise: the published sheet stays version 1 until version 2 is
 	// published; the superseded version, printed by number, says so.
 	b.post(base+"/revise", nil).mustRedirect(t, base+"/versions/2")
-	if text, ok := sheetText(t, b.getPDF(base+"/sheet.pdf").body); ok && !strings.Contains(text, "version 1") {
+	if text, ok := sheettest.Text(t, b.getPDF(base+"/sheet.pdf").body); ok && !strings.Contains(text, "version 1") {
 		t.Error("published sheet changed when a new draft was started")
 	}
 	v2 := latestVersion(t, a, pid)
 	b.post(base+"/versions/2", url.Values{"revision": {strconv.Itoa(v2.Revision)}, "action": {"publish"}}).mustRedirect(t, base+"/versions/2")
 	res = b.getPDF(base + "/versions/1/sheet.pdf")
 	res.mustPDF(t)
-	if text, ok := sheetText(t, res.body); ok && !strings.Contains(text, sheet.SupersededMark) {
+	if text, ok := sheettest.Text(t, res.body); ok && !strings.Contains(text, sheet.SupersededMark) {
 		t.Error("superseded version's sheet is not marked")
 	}
 }
@@ -263,7 +236,7 @@ func TestDemoPlanSheets(t *testing.T) {
 			if dir := os.Getenv("LARDER_SHEET_OUT"); dir != "" {
 				_ = os.WriteFile(filepath.Join(dir, "demo-"+p.kind+"-"+paper+".pdf"), got.body, 0o644)
 			}
-			text, ok := sheetText(t, got.body)
+			text, ok := sheettest.Text(t, got.body)
 			if !ok {
 				continue
 			}

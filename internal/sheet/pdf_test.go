@@ -4,9 +4,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"os"
-	"os/exec"
 	"path/filepath"
-	"regexp"
 	"strconv"
 	"strings"
 	"testing"
@@ -14,6 +12,7 @@ import (
 
 	"larder/internal/fuel"
 	"larder/internal/menu"
+	"larder/internal/sheet/sheettest"
 )
 
 // example computes one of the example requests of testdata/fuel.
@@ -64,34 +63,6 @@ func sheetFor(req fuel.Request, plan fuel.Plan, status string) Sheet {
 	return s
 }
 
-var pageObj = regexp.MustCompile(`/Type /Page\b[^s]`)
-
-// pageCount counts the page objects of a PDF written by fpdf.
-func pageCount(pdf []byte) int { return len(pageObj.FindAll(pdf, -1)) }
-
-// pdfText extracts a PDF's text with pdftotext (poppler-utils), whitespace
-// folded to single spaces; ok is false when pdftotext is not installed.
-func pdfText(t *testing.T, pdf []byte) (string, bool) {
-	t.Helper()
-	bin, err := exec.LookPath("pdftotext")
-	if err != nil {
-		if os.Getenv("LARDER_TEST_REQUIRE_BROWSER") == "1" {
-			t.Fatal("pdftotext (poppler-utils) is required: ", err)
-		}
-		return "", false
-	}
-	path := filepath.Join(t.TempDir(), "sheet.pdf")
-	if err := os.WriteFile(path, pdf, 0o644); err != nil {
-		t.Fatal(err)
-	}
-	// -raw keeps the order the sheet draws in: row by row, cell by cell.
-	out, err := exec.Command(bin, "-raw", "-enc", "UTF-8", path, "-").Output()
-	if err != nil {
-		t.Fatalf("pdftotext: %v", err)
-	}
-	return strings.Join(strings.Fields(string(out)), " "), true
-}
-
 func TestParsePaper(t *testing.T) {
 	for in, want := range map[string]Paper{"": A4, "a4": A4, "A4": A4, "letter": Letter, " Letter ": Letter} {
 		if got, ok := ParsePaper(in); !ok || got != want {
@@ -136,16 +107,16 @@ func TestSheetOfEachExample(t *testing.T) {
 					t.Fatalf("not a PDF: %q", pdf[:min(20, len(pdf))])
 				}
 				// DESIGN.md: one to three pages a clinician can hand over.
-				if n := pageCount(pdf); n < 1 || n > 3 {
+				if n := sheettest.Pages(pdf); n < 1 || n > 3 {
 					t.Errorf("%s on %s: %d pages, want 1–3", name, paper, n)
 				}
-				text, ok := pdfText(t, pdf)
+				text, ok := sheettest.Text(t, pdf)
 				if !ok {
 					continue
 				}
 				want := []string{"Tomás Arriaga", "Fjordside Sports Nutrition", "Coeliac disease – gluten-free foods only",
 					"History of gut upset on gels", "Findings", "checks within guideline",
-					"page 1 of " + strconv.Itoa(pageCount(pdf))}
+					"page 1 of " + strconv.Itoa(sheettest.Pages(pdf))}
 				for _, d := range plan.Days {
 					want = append(want, strconv.FormatFloat(d.ChoGPerKg, 'f', 1, 64))
 				}
@@ -154,8 +125,8 @@ func TestSheetOfEachExample(t *testing.T) {
 						t.Errorf("%s on %s: text lacks %q\n%s", name, paper, w, text)
 					}
 				}
-				if n := strings.Count(text, "not medical advice"); n != pageCount(pdf) {
-					t.Errorf("%s: caution printed %d times on %d pages", name, n, pageCount(pdf))
+				if n := strings.Count(text, "not medical advice"); n != sheettest.Pages(pdf) {
+					t.Errorf("%s: caution printed %d times on %d pages", name, n, sheettest.Pages(pdf))
 				}
 				if strings.Contains(text, "DRAFT") {
 					t.Errorf("%s: a published sheet is marked as a draft", name)
@@ -176,7 +147,7 @@ func TestCautionTextWhole(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	text, ok := pdfText(t, pdf)
+	text, ok := sheettest.Text(t, pdf)
 	if !ok {
 		t.Skip("pdftotext not installed")
 	}
@@ -193,7 +164,7 @@ func TestDraftWatermark(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		text, ok := pdfText(t, pdf)
+		text, ok := sheettest.Text(t, pdf)
 		if !ok {
 			t.Skip("pdftotext not installed")
 		}
@@ -201,7 +172,7 @@ func TestDraftWatermark(t *testing.T) {
 		// letter, hence the spaces dropped) and once in the banner, on
 		// every page.
 		compact := strings.ReplaceAll(text, " ", "")
-		if n, pages := strings.Count(compact, strings.ReplaceAll(mark, " ", "")), pageCount(pdf); n != 2*pages {
+		if n, pages := strings.Count(compact, strings.ReplaceAll(mark, " ", "")), sheettest.Pages(pdf); n != 2*pages {
 			t.Errorf("%s: mark %q printed %d times on %d pages", status, mark, n, pages)
 		}
 	}
@@ -215,7 +186,7 @@ func TestNoCautionsNoBox(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	text, ok := pdfText(t, pdf)
+	text, ok := sheettest.Text(t, pdf)
 	if !ok {
 		t.Skip("pdftotext not installed")
 	}
@@ -309,7 +280,7 @@ func FuzzSheetText(f *testing.F) {
 		if !bytes.HasPrefix(pdf, []byte("%PDF-")) {
 			t.Fatal("not a PDF")
 		}
-		if n := pageCount(pdf); n < 1 || n > 3 {
+		if n := sheettest.Pages(pdf); n < 1 || n > 3 {
 			t.Fatalf("%d pages", n)
 		}
 	})
