@@ -523,17 +523,43 @@ func mapRequestError(f forms.Form, err error) {
 	}
 }
 
+// engineWords replaces the engine's field keys, which it names for the
+// JSON API, with the words the form uses.
+var engineWords = strings.NewReplacer(
+	"session_end", "the end of the session",
+	"cho_g_per_kg", "carbohydrate g/kg",
+	"eating_occasions", "eating occasions",
+)
+
+// recordWords names, in the form's words, the record a field error of the
+// engine is about when that record is edited on the client's page.
+func recordWords(field string) (string, bool) {
+	switch {
+	case strings.HasPrefix(field, "training"):
+		return "A session in the training log", true
+	case field == "event.distance_km":
+		return "The event's distance", true
+	case field == "event.expected_duration_min":
+		return "The event's expected duration", true
+	case field == "event.starts_at":
+		return "The event's start", true
+	case strings.HasPrefix(field, "event"):
+		return "The event", true
+	}
+	return "", false
+}
+
 // fieldWords phrases an engine field error as a sentence.
 func fieldWords(fe fuel.FieldError) string {
-	msg := fe.Message
-	if msg != "" {
-		msg = strings.ToUpper(msg[:1]) + msg[1:]
-	}
+	msg := engineWords.Replace(fe.Message)
 	if !strings.HasSuffix(msg, ".") {
 		msg += "."
 	}
-	if strings.HasPrefix(fe.Field, "training") || strings.HasPrefix(fe.Field, "event") {
-		return "In the " + strings.SplitN(fe.Field, ".", 2)[0] + " data (" + fe.Field + "): " + msg
+	if who, ok := recordWords(fe.Field); ok {
+		return who + " " + msg + " Change it on the client's page."
+	}
+	if msg != "" {
+		msg = strings.ToUpper(msg[:1]) + msg[1:]
 	}
 	return msg
 }

@@ -668,3 +668,37 @@ func TestPublishedPlanShowsStoredSuggestions(t *testing.T) {
 		t.Errorf("the draft still suggests archived food %q", name)
 	}
 }
+
+// TestRepletionGapTooLongInFormWords: the engine names its JSON keys in its
+// messages (for the API); the form must say the same in the form's words,
+// next to the field at fault, keeping what was typed and saving nothing.
+func TestRepletionGapTooLongInFormWords(t *testing.T) {
+	a := newApp(t)
+	demo := loadDemo(t, a)
+	b, _ := a.signedIn(store.RoleDietitian)
+	rower := demo.IDs.Clients["rower"]
+	before := a.count(`SELECT count(*) FROM plans WHERE client_id = $1`, rower)
+	res := b.post("/clients/"+itoa64(rower)+"/plans", planForm("repletion", "88", "session_end", "2027-03-02T09:30",
+		"next_start", "2027-03-09T15:30", "time_zone", "Europe/London"))
+	if res.status != http.StatusUnprocessableEntity {
+		t.Fatalf("status %d, want 422", res.status)
+	}
+	res.mustContain(t, `id="err-next_start"`, "within 72 hours of the end of the session", `value="2027-03-09T15:30"`)
+	if strings.Contains(res.body, "session_end.") || strings.Contains(res.body, "of session_end") {
+		t.Errorf("the page names the engine's field key session_end")
+	}
+	if after := a.count(`SELECT count(*) FROM plans WHERE client_id = $1`, rower); after != before {
+		t.Errorf("plans of the client went from %d to %d on a refused form", before, after)
+	}
+}
+
+func TestFieldWordsForRecordsOnTheClientPage(t *testing.T) {
+	got := fieldWords(fuel.FieldError{Field: "event.distance_km", Message: "must be at most 1000 km"})
+	if want := "The event's distance must be at most 1000 km. Change it on the client's page."; got != want {
+		t.Errorf("fieldWords = %q, want %q", got, want)
+	}
+	got = fieldWords(fuel.FieldError{Field: "training[2].intensity", Message: "rpe must be 1 to 10"})
+	if strings.Contains(got, "training[2]") || !strings.HasPrefix(got, "A session in the training log") {
+		t.Errorf("fieldWords for a training error = %q", got)
+	}
+}
