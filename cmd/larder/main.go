@@ -20,6 +20,8 @@ Usage:
   larder demo    [--data-dir DIR] [--password P]
   larder user    add --email E --name N [--admin] [--password P]
   larder compute [--in request.json]     (reads stdin when --in is absent)
+  larder backup  [--out FILE]            (the whole database, pg_dump custom format)
+  larder restore --in FILE --yes         (replaces everything in the database)
 
 With DATABASE_URL set, larder uses that PostgreSQL database; otherwise it runs
 a private PostgreSQL cluster in --data-dir (env LARDER_DATA_DIR).
@@ -49,6 +51,10 @@ func run(ctx context.Context, args []string, stdin io.Reader, stdout, stderr io.
 		return runUser(ctx, rest, stdout, stderr)
 	case "compute":
 		return runCompute(rest, stdin, stdout, stderr)
+	case "backup":
+		return runBackup(ctx, rest, stdout, stderr)
+	case "restore":
+		return runRestore(ctx, rest, stdout, stderr)
 	case "help", "-h", "--help":
 		fmt.Fprint(stdout, usage)
 		return 0
