@@ -40,7 +40,7 @@ func (s *Server) bodyMassCreate(w http.ResponseWriter, r *http.Request) {
 	}
 	var in bodyMassForm
 	f := forms.Decode(r.PostForm, &in)
-	in.check(f, s.Today())
+	in.check(f, s.Today(), c.DateOfBirth)
 	if f.Has() {
 		s.Render(w, r, http.StatusUnprocessableEntity, "Add body mass", "clients", web.BodyMassForm(c, nil, f))
 		return
@@ -87,7 +87,7 @@ func (s *Server) bodyMassUpdate(w http.ResponseWriter, r *http.Request) {
 	}
 	var in bodyMassForm
 	f := forms.Decode(r.PostForm, &in)
-	in.check(f, s.Today())
+	in.check(f, s.Today(), c.DateOfBirth)
 	if f.Has() {
 		s.Render(w, r, http.StatusUnprocessableEntity, "Edit body mass", "clients", web.BodyMassForm(c, &m, f))
 		return

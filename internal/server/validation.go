@@ -86,11 +86,17 @@ const (
 	maxMassKg = 300
 )
 
-func (in *bodyMassForm) check(f forms.Form, today time.Time) {
+// check adds the rules one field cannot say alone; born is the client's date
+// of birth, nil when not recorded.
+func (in *bodyMassForm) check(f forms.Form, today time.Time, born *time.Time) {
 	if !in.MeasuredOn.IsZero() {
-		if in.MeasuredOn.After(today.AddDate(0, 0, 1)) {
+		switch {
+		case in.MeasuredOn.After(today.AddDate(0, 0, 1)):
 			f.Errors.Add("measured_on", "Measurement date cannot be more than one day after today ("+web.Date(today)+").")
-		} else if in.MeasuredOn.Year() < 1900 {
+		case born != nil && in.MeasuredOn.Before(*born):
+			// A typo in the year (1926 for 2026) would otherwise stretch the trend chart over a century.
+			f.Errors.Add("measured_on", "Measurement date cannot be before the client's date of birth ("+web.Date(*born)+").")
+		case in.MeasuredOn.Year() < 1900:
 			f.Errors.Add("measured_on", "Measurement date must be after 1900.")
 		}
 	}

@@ -1,10 +1,12 @@
 package server
 
 import (
+	"context"
 	"net/http"
 	"net/url"
 	"strings"
 	"testing"
+	"time"
 
 	"larder/internal/store"
 )
@@ -148,4 +150,29 @@ func TestValidationMessages(t *testing.T) {
 			t.Fatalf("boundary form to %s refused: %d\n%s", path, res.status, res.body)
 		}
 	}
+}
+
+// A measurement dated before the client was born is a typo in the year; it is
+// refused beside the date. A whole-kilogram mass reads "58.0 kg" like its
+// neighbours in the table.
+func TestBodyMassBeforeBirthAndOneDecimal(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	born := time.Date(1992, 7, 1, 0, 0, 0, 0, time.UTC)
+	h := 167.0
+	c := store.Client{Name: unique("Born Client"), Sex: store.SexFemale, HeightCm: &h, DateOfBirth: &born}
+	if err := a.st.CreateClient(context.Background(), store.System, &c); err != nil {
+		t.Fatal(err)
+	}
+	base := "/clients/" + itoa(c.ID)
+	res := b.post(base+"/body-mass", url.Values{"measured_on": {"1926-11-30"}, "mass": {"58"}, "unit": {"kg"}, "method": {"scale"}})
+	if res.status != http.StatusUnprocessableEntity {
+		t.Fatalf("status %d, want 422", res.status)
+	}
+	res.mustContain(t, "Measurement date cannot be before the client&#39;s date of birth (Wed 1 Jul 1992).", `id="err-measured_on"`, `value="1926-11-30"`, `value="scale"`)
+	if n := a.count(`SELECT count(*) FROM body_mass WHERE client_id = $1`, c.ID); n != 0 {
+		t.Fatalf("%d measurements saved", n)
+	}
+	b.post(base+"/body-mass", url.Values{"measured_on": {"2027-02-28"}, "mass": {"58"}, "unit": {"kg"}}).mustRedirect(t, base)
+	b.get(base).mustContain(t, "58.0 kg")
 }
