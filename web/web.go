@@ -33,6 +33,9 @@ type Page struct {
 // Date formats a date as "Tue 1 Dec 2026".
 func Date(t time.Time) string { return t.Format("Mon 2 Jan 2006") }
 
+// UTCStamp is a moment in UTC in the pages' own date style: "Wed 2 Dec 2026 00:28".
+func UTCStamp(t time.Time) string { return t.UTC().Format("Mon 2 Jan 2006 15:04") }
+
 // DatePtr formats an optional date, "—" when absent.
 func DatePtr(t *time.Time) string {
 	if t == nil {
@@ -98,12 +101,12 @@ func RoleLabel(role string) string {
 	return role
 }
 
-// MassText shows a measurement as entered: "68.2 kg", or "150.4 lb (68.22 kg)".
+// MassText shows a measurement as entered: "68.0 kg", or "150.4 lb (68.2 kg)".
 func MassText(m store.BodyMass) string {
 	if m.EnteredUnit == "lb" {
-		return Num(forms.KgToLb(m.MassKg), 1) + " lb (" + Num(m.MassKg, 1) + " kg)"
+		return OneDecimal(forms.KgToLb(m.MassKg)) + " lb (" + OneDecimal(m.MassKg) + " kg)"
 	}
-	return Num(m.MassKg, 1) + " kg"
+	return OneDecimal(m.MassKg) + " kg"
 }
 
 // MassInput is the mass as the form shows it back, in the unit entered.
@@ -192,7 +195,13 @@ func KgPtr(kg *float64) string {
 	if kg == nil {
 		return "—"
 	}
-	return Num(*kg, 1) + " kg"
+	return OneDecimal(*kg) + " kg"
+}
+
+// OneDecimal always shows one decimal ("58.0", not "58"), so a column of
+// body masses reads evenly.
+func OneDecimal(x float64) string {
+	return strconv.FormatFloat(roundTo(x, 1), 'f', 1, 64)
 }
 
 // KmPtr formats an optional distance: "42.195 km", or "—".
@@ -210,6 +219,7 @@ func AuditText(a store.AuditEntry) string {
 		"create": "created", "update": "changed", "delete": "deleted", "archive": "archived", "unarchive": "unarchived",
 		"sign_in": "signed in", "sign_out": "signed out", "set_password": "set the password of", "change_role": "changed the role of",
 		"disable": "disabled", "enable": "enabled", "load": "loaded", "revoke": "revoked",
+		"publish": "published", "revise": "started a new version of", "discard": "discarded",
 	}[a.Action]
 	if verb == "" {
 		verb = a.Action
@@ -218,26 +228,38 @@ func AuditText(a store.AuditEntry) string {
 		return verb
 	}
 	noun := map[string]string{"client": "client", "body_mass": "a body-mass measurement", "training": "a training session",
-		"event": "an event", "user": "staff account", "setting": "a practice setting", "demo": "the demo practice", "client_link": "a client link"}[a.Entity]
+		"event": "an event", "user": "staff account", "setting": "a practice setting", "demo": "the demo practice", "client_link": "a client link",
+		"plan": "plan", "food": "food"}[a.Entity]
 	if noun == "" {
 		noun = a.Entity
 	}
 	var d map[string]any
 	_ = json.Unmarshal(a.Detail, &d)
 	str := func(k string) string { v, _ := d[k].(string); return v }
+	// Dates in the detail are stored as 2027-02-20; pages show "Sat 20 Feb 2027".
+	day := func(k string) string {
+		if t, err := time.Parse("2006-01-02", str(k)); err == nil {
+			return Date(t)
+		}
+		return str(k)
+	}
 	var what string
 	switch a.Entity {
-	case "client", "event":
+	case "client", "event", "food":
 		what = str("name")
+	case "plan":
+		if v, ok := d["version"].(float64); ok {
+			what = "version " + strconv.Itoa(int(v))
+		}
 	case "user":
 		what = str("email")
 		if r := str("role"); r != "" && a.Action == "change_role" {
 			what += " to " + strings.ToLower(RoleLabel(r))
 		}
 	case "body_mass":
-		what = str("measured_on")
+		what = day("measured_on")
 	case "training":
-		what = strings.TrimSpace(str("on_date") + " " + store.ModalityLabel(str("modality")))
+		what = strings.TrimSpace(day("on_date") + " " + store.ModalityLabel(str("modality")))
 	case "setting":
 		what = str("key")
 	}

@@ -100,7 +100,7 @@ func TestBodyMassAddEditDelete(t *testing.T) {
 	}
 	// Newest first on the page, the latest shown as entered.
 	page := b.get(base)
-	page.mustContain(t, "150 lb (68 kg)", "61.4 kg", "21.5 %")
+	page.mustContain(t, "150.0 lb (68.0 kg)", "61.4 kg", "21.5 %")
 	if strings.Index(page.body, "Mon 1 Mar 2027") > strings.Index(page.body, "Sat 20 Feb 2027") {
 		t.Fatal("body-mass history is not newest first")
 	}

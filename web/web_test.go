@@ -1,0 +1,50 @@
+package web
+
+import (
+	"encoding/json"
+	"testing"
+	"time"
+
+	"larder/internal/store"
+)
+
+// The change history reads as sentences in the pages' own date style, with
+// no stored action names ("publish", "revise") or ISO dates showing through.
+func TestAuditText(t *testing.T) {
+	entry := func(action, entity string, detail map[string]any) store.AuditEntry {
+		b, err := json.Marshal(detail)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return store.AuditEntry{Action: action, Entity: entity, Detail: b}
+	}
+	cases := []struct {
+		in   store.AuditEntry
+		want string
+	}{
+		{entry("publish", "plan", map[string]any{"version": 2}), "published plan (version 2)"},
+		{entry("revise", "plan", map[string]any{"version": 3, "from_version": 2}), "started a new version of plan (version 3)"},
+		{entry("discard", "plan", map[string]any{"version": 1}), "discarded plan (version 1)"},
+		{entry("create", "food", map[string]any{"name": "Honey"}), "created food (Honey)"},
+		{entry("create", "body_mass", map[string]any{"measured_on": "2027-02-20"}), "created a body-mass measurement (Sat 20 Feb 2027)"},
+		{entry("update", "training", map[string]any{"on_date": "2027-02-21", "modality": "run"}), "changed a training session (Sun 21 Feb 2027 Running)"},
+		{entry("sign_in", "user", nil), "signed in"},
+	}
+	for _, c := range cases {
+		if got := AuditText(c.in); got != c.want {
+			t.Errorf("AuditText(%s %s) = %q, want %q", c.in.Action, c.in.Entity, got, c.want)
+		}
+	}
+}
+
+func TestUTCStampAndOneDecimal(t *testing.T) {
+	at := time.Date(2026, 12, 2, 1, 28, 0, 0, time.FixedZone("CET", 3600))
+	if got := UTCStamp(at); got != "Wed 2 Dec 2026 00:28" {
+		t.Errorf("UTCStamp = %q", got)
+	}
+	for in, want := range map[float64]string{58: "58.0", 58.14: "58.1", 68.04: "68.0", 92.75: "92.8"} {
+		if got := OneDecimal(in); got != want {
+			t.Errorf("OneDecimal(%v) = %q, want %q", in, got, want)
+		}
+	}
+}
