@@ -16,6 +16,7 @@
 package forms
 
 import (
+	"errors"
 	"fmt"
 	"net/url"
 	"reflect"
@@ -119,6 +120,33 @@ func ValidZone(name string) bool {
 	return err == nil
 }
 
+// CanonicalZone corrects the capitals and spaces of a typed zone name
+// ("europe/oslo", "America/New York", "utc") to the IANA spelling when that
+// names a zone; anything else is returned as typed, for ValidZone to refuse.
+func CanonicalZone(name string) string {
+	name = strings.TrimSpace(name)
+	if ValidZone(name) {
+		return name
+	}
+	if up := strings.ToUpper(name); ValidZone(up) { // UTC, GMT, EST5EDT
+		return up
+	}
+	parts := strings.Split(strings.ReplaceAll(name, " ", "_"), "/")
+	for i, part := range parts {
+		words := strings.Split(part, "_")
+		for j, w := range words {
+			if w != "" {
+				words[j] = strings.ToUpper(w[:1]) + strings.ToLower(w[1:])
+			}
+		}
+		parts[i] = strings.Join(words, "_")
+	}
+	if fixed := strings.Join(parts, "/"); ValidZone(fixed) {
+		return fixed
+	}
+	return name
+}
+
 // ParseLocalDateTime reads a date and clock time as <input
 // type=datetime-local> sends them ("2027-04-18T08:30", seconds optional; a
 // space instead of T is accepted) in loc.
@@ -171,8 +199,18 @@ func Decode(values url.Values, dst any) Form {
 			continue
 		}
 		raw := strings.TrimSpace(f.Values.Get(name))
+		if strings.Contains(sf.Tag.Get("validate"), "iana_zone") && raw != "" {
+			// Shown back as corrected, so the person sees the name that was saved.
+			raw = CanonicalZone(raw)
+			f.Values.Set(name, raw)
+		}
 		if err := setField(rv.Field(i), raw); err != nil {
-			f.Errors.Add(name, parseMessage(sf, raw))
+			if _, hi, _, _ := rangeOf(sf); hi != "" && errors.Is(err, strconv.ErrRange) {
+				// 99999999999 is a whole number, only far too big: say the limits.
+				f.Errors.Add(name, Message(sf, "lte", hi))
+			} else {
+				f.Errors.Add(name, parseMessage(sf, raw))
+			}
 		}
 	}
 	if err := validate.Struct(dst); err != nil {

@@ -57,6 +57,10 @@ func TestDecodeMessages(t *testing.T) {
 		{url.Values{"mass": {"Inf"}}, "mass", "Body mass must be a number."},
 		{url.Values{"reps": {"0"}}, "reps", "Repetitions must be more than 0 and at most 50."},
 		{url.Values{"reps": {"2.5"}}, "reps", "Repetitions must be a whole number."},
+		// Whole but beyond int32: the limits are the helpful answer.
+		{url.Values{"reps": {"99999999999"}}, "reps", "Repetitions must be more than 0 and at most 50."},
+		{url.Values{"mass": {strings.Repeat("9", 400)}}, "mass", "Body mass must be between 20 and 300 kg."},
+		{url.Values{"zone": {"europe/berlin"}}, "zone", ""},
 		{url.Values{"count": {"10"}}, "count", "Count must be at least 0 and less than 10."},
 		{url.Values{"day": {"18/04/2027"}}, "day", "Day must be a date (year-month-day)."},
 		{url.Values{"born": {"2027-02-30"}}, "born", "Born must be a date (year-month-day)."},
@@ -178,6 +182,41 @@ func FuzzParseLocalDateTime(f *testing.F) {
 		loc, _ := time.LoadLocation(zone)
 		if got, err := ParseLocalDateTime(s, loc); err == nil && got.IsZero() {
 			t.Fatalf("ParseLocalDateTime(%q) gave the zero time", s)
+		}
+	})
+}
+
+// People type zone names in lower case or with spaces; the IANA spelling is
+// what time.LoadLocation needs.
+func TestCanonicalZone(t *testing.T) {
+	for in, want := range map[string]string{
+		"Europe/Oslo":          "Europe/Oslo",
+		"europe/oslo":          "Europe/Oslo",
+		" EUROPE/BERLIN ":      "Europe/Berlin",
+		"america/new york":     "America/New_York",
+		"America/new_york":     "America/New_York",
+		"utc":                  "UTC",
+		"Mars/Olympus_Mons":    "Mars/Olympus_Mons",
+		"Local":                "Local",
+		"europe/../etc/passwd": "europe/../etc/passwd",
+	} {
+		if got := CanonicalZone(in); got != want {
+			t.Errorf("CanonicalZone(%q) = %q, want %q", in, got, want)
+		}
+	}
+	if ValidZone(CanonicalZone("Local")) {
+		t.Error("Local (the server's zone) became valid")
+	}
+}
+
+// FuzzCanonicalZone: never panics, and whatever it changes is a valid zone.
+func FuzzCanonicalZone(f *testing.F) {
+	for _, s := range []string{"europe/oslo", "utc", "america/new york", "ß/ÿ", "/"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		if got := CanonicalZone(s); got != strings.TrimSpace(s) && !ValidZone(got) {
+			t.Fatalf("CanonicalZone(%q) = %q, not a zone", s, got)
 		}
 	})
 }

@@ -202,11 +202,11 @@ func TestEventAddEditDelete(t *testing.T) {
 
 	id := itoa(e.ID)
 	b.get(base+"/events/"+id+"/edit").mustContain(t, `value="2027-04-18T09:00"`, `value="Europe/Oslo"`)
-	b.post(base+"/events/"+id, url.Values{"name": {"Lakeside Stage Race"}, "starts_at": {"2027-04-18 10:30"}, "time_zone": {"America/Denver"},
+	b.post(base+"/events/"+id, url.Values{"name": {"Lakeside Stage Race"}, "starts_at": {"2027-04-18 10:30"}, "time_zone": {"america/denver"},
 		"modality": {"cycle"}, "expected_duration_min": {"240"}, "days": {"3"}, "priority": {"B"}}).mustRedirect(t, base)
 	e, _ = a.st.EventByID(ctx, c.ID, e.ID)
-	// Denver in April is on daylight time, UTC−6.
-	if e.Name != "Lakeside Stage Race" || !e.StartsAt.Equal(time.Date(2027, 4, 18, 16, 30, 0, 0, time.UTC)) || e.Days != 3 || e.DistanceKm != nil || e.Priority != "B" {
+	// Denver in April is on daylight time, UTC−6; the zone typed in lower case is saved in its IANA spelling.
+	if e.Name != "Lakeside Stage Race" || !e.StartsAt.Equal(time.Date(2027, 4, 18, 16, 30, 0, 0, time.UTC)) || e.Days != 3 || e.DistanceKm != nil || e.Priority != "B" || e.TimeZone != "America/Denver" {
 		t.Fatalf("edited %+v (start %s UTC)", e, e.StartsAt.UTC())
 	}
 	b.post(base+"/events/"+id+"/delete", nil).mustRedirect(t, base)
