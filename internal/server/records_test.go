@@ -266,3 +266,24 @@ func TestTeamManagement(t *testing.T) {
 
 	admin.post("/team/practice", url.Values{"practice_name": {""}}).mustContain(t, "Practice name is required.")
 }
+
+// After a refused form the address bar shows the form's POST address; opening
+// it again from there gets a page in words, not an empty 405.
+func TestFormAddressOpenedDirectly(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	c := a.newClient(unique("Address Client"))
+	for _, path := range []string{"/clients/" + itoa(c.ID) + "/body-mass", "/clients/" + itoa(c.ID) + "/archive", "/signout"} {
+		res := b.get(path)
+		if res.status != http.StatusMethodNotAllowed {
+			t.Fatalf("GET %s: status %d, want 405", path, res.status)
+		}
+		res.mustContain(t, "This address only receives a filled-in form", `nav aria-label="Main"`)
+	}
+	// Anonymous visitors get the same words, and nothing else.
+	res := a.browser().get("/clients/" + itoa(c.ID) + "/archive")
+	if res.status != http.StatusMethodNotAllowed || strings.Contains(res.body, `nav aria-label="Main"`) {
+		t.Fatalf("anonymous GET of a form address: status %d\n%s", res.status, res.body)
+	}
+	res.mustContain(t, "This address only receives a filled-in form")
+}

@@ -61,6 +61,14 @@ func (s *Server) NotFound(w http.ResponseWriter, r *http.Request) {
 	s.Render(w, r, http.StatusNotFound, "Not found", "", web.Message("Not found", "There is nothing at this address. It may have been deleted."))
 }
 
+// MethodNotAllowed answers an address opened the wrong way — most often a
+// form's address (shown in the address bar after a refused form) opened
+// again from there — with a page in words instead of an empty 405.
+func (s *Server) MethodNotAllowed(w http.ResponseWriter, r *http.Request) {
+	s.Render(w, r, http.StatusMethodNotAllowed, "Nothing to show here", "", web.Message("Nothing to show here",
+		"This address only receives a filled-in form, so there is no page to open at it. Go back to the page you came from, or start again from Clients."))
+}
+
 // Forbidden shows a plain 403 page.
 func (s *Server) Forbidden(w http.ResponseWriter, r *http.Request) {
 	s.Render(w, r, http.StatusForbidden, "Not allowed", "", web.Message("Not allowed", "Only an administrator of the practice can open this page."))

@@ -23,6 +23,7 @@ func (s *Server) routes() http.Handler {
 	r.Head("/healthz", s.healthz)
 	s.mountClientLinkRoutes(r) // public: the token in the URL is the only key
 	r.NotFound(s.Sessions.LoadAndSave(s.loadUser(http.HandlerFunc(s.NotFound))).ServeHTTP)
+	r.MethodNotAllowed(s.Sessions.LoadAndSave(s.loadUser(http.HandlerFunc(s.MethodNotAllowed))).ServeHTTP)
 
 	r.Group(func(r chi.Router) {
 		r.Use(s.Sessions.LoadAndSave, s.loadUser)
