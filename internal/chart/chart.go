@@ -177,12 +177,7 @@ func GlycogenCurve(points []GlycogenPoint, start time.Time, startLabel string) (
 	}
 	loc := points[0].At.Location()
 	p := newPlot("Expected glycogen", "", "g")
-	span := points[len(points)-1].At.Sub(points[0].At)
-	format := "Mon 2 Jan"
-	if span < 36*time.Hour {
-		format = "15:04"
-	}
-	p.X.Tick.Marker = dateTicks(loc, format)
+	p.X.Tick.Marker = clockTicks{loc: loc}
 	muscle := make(plotter.XYs, len(points))
 	liver := make(plotter.XYs, len(points))
 	top := 0.0
@@ -249,6 +244,63 @@ func dateTicks(loc *time.Location, format string) plot.TimeTicks {
 		Format: format,
 		Time:   func(t float64) time.Time { return time.Unix(int64(t), 0).In(loc) },
 	}
+}
+
+// clockTicks labels a Unix-seconds axis at round local times: whole hours
+// (every 1, 2, 3, 6 or 12 h) over a day or so, local midnights over longer
+// spans. gonum's own time ticks fall at odd minutes (05:56, 19:50), which
+// read as figures of the plan when they are not.
+type clockTicks struct{ loc *time.Location }
+
+func (c clockTicks) Ticks(min, max float64) []plot.Tick {
+	from := time.Unix(int64(math.Floor(min)), 0).In(c.loc)
+	to := time.Unix(int64(math.Ceil(max)), 0).In(c.loc)
+	span := to.Sub(from)
+	if span <= 0 {
+		return nil
+	}
+	var ticks []plot.Tick
+	add := func(t time.Time, label string) {
+		x := float64(t.Unix())
+		if x >= min && x <= max {
+			ticks = append(ticks, plot.Tick{Value: x, Label: label})
+		}
+	}
+	if span <= 48*time.Hour {
+		step := 12
+		for _, h := range []int{1, 2, 3, 6, 12} {
+			if span <= time.Duration(h*6)*time.Hour {
+				step = h
+				break
+			}
+		}
+		// A span past a midnight names the day with the hour, so 06:00 of
+		// the second day does not read as the first day's.
+		crosses := from.YearDay() != to.YearDay()
+		t := time.Date(from.Year(), from.Month(), from.Day(), from.Hour(), 0, 0, 0, c.loc)
+		for ; !t.After(to); t = t.Add(time.Hour) {
+			if t.Hour()%step != 0 {
+				continue
+			}
+			label := t.Format("15:04")
+			if crosses && (t.Hour() == 0 || len(ticks) == 0) {
+				label = t.Format("Mon 15:04")
+			}
+			add(t, label)
+		}
+		return ticks
+	}
+	days := int(math.Ceil(span.Hours() / 24 / 6))
+	if days < 1 {
+		days = 1
+	}
+	t := time.Date(from.Year(), from.Month(), from.Day(), 0, 0, 0, 0, c.loc)
+	for i := 0; !t.After(to); i, t = i+1, t.AddDate(0, 0, 1) {
+		if i%days == 0 {
+			add(t, t.Format("Mon 2 Jan"))
+		}
+	}
+	return ticks
 }
 
 // wholeTicks labels a value axis without needless decimals (500, not 500.00).

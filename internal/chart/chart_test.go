@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/xml"
 	"errors"
+	"gonum.org/v1/plot"
 	"io"
 	"math"
 	"strings"
@@ -143,5 +144,47 @@ func TestGlycogenCurve(t *testing.T) {
 	again, _ := GlycogenCurve(pts, start, "race start")
 	if !bytes.Equal(b, again) {
 		t.Error("same input drew different bytes")
+	}
+}
+
+// TestGlycogenCurveRoundTimes: the time axis of the glycogen curve is
+// labelled at whole hours (or local midnights), never at odd minutes, and a
+// span past midnight names the day.
+func TestGlycogenCurveRoundTimes(t *testing.T) {
+	zone := time.FixedZone("X", 1*3600)
+	// A race-day curve: from 05:56 one morning to 09:43 the next.
+	t0 := time.Date(2027, 1, 5, 5, 56, 0, 0, zone)
+	end := time.Date(2027, 1, 6, 9, 43, 0, 0, zone)
+	var ticks []plot.Tick
+	for _, tk := range (clockTicks{loc: zone}).Ticks(float64(t0.Unix()), float64(end.Unix())) {
+		if tk.Label != "" {
+			ticks = append(ticks, tk)
+		}
+	}
+	if len(ticks) < 3 || len(ticks) > 12 {
+		t.Fatalf("%d labelled ticks over 28 h: %v", len(ticks), ticks)
+	}
+	for _, tk := range ticks {
+		at := time.Unix(int64(tk.Value), 0).In(zone)
+		if at.Minute() != 0 || at.Second() != 0 {
+			t.Errorf("tick at %s is not on a whole hour", at.Format("15:04"))
+		}
+		if at.Before(t0) || at.After(end) {
+			t.Errorf("tick at %s lies outside the curve", at)
+		}
+	}
+	if !strings.HasPrefix(ticks[0].Label, "Tue ") {
+		t.Errorf("first tick of a span past midnight = %q, want the day named", ticks[0].Label)
+	}
+	// A three-day curve: one tick a local midnight, labelled with the date.
+	long := (clockTicks{loc: zone}).Ticks(float64(t0.Unix()), float64(t0.Add(72*time.Hour).Unix()))
+	for _, tk := range long {
+		at := time.Unix(int64(tk.Value), 0).In(zone)
+		if at.Hour() != 0 || at.Minute() != 0 || !strings.Contains(tk.Label, "Jan") {
+			t.Errorf("three-day tick %q at %s", tk.Label, at)
+		}
+	}
+	if len(long) != 3 {
+		t.Errorf("three days from 05:56 hold %d midnights, want 3", len(long))
 	}
 }
