@@ -57,6 +57,11 @@ type Need struct {
 	Hours float64
 	// GlutenFree leaves out foods that contain gluten (see GlutenFreeFor).
 	GlutenFree bool
+	// ProteinG, when set, is the protein the feed is to bring (the first
+	// feed after a session carries about 0.3 g/kg): foods that bring it rank
+	// before those that bring carbohydrate alone, so the suggestion does
+	// not read as gels for a feed that asks for 25 g of protein.
+	ProteinG float64
 	// Avoid lists food IDs to leave out when an alternative exists, so that
 	// successive feeds of a day do not all suggest the same food.
 	Avoid []int64
@@ -388,7 +393,7 @@ func score(items []Item, need Need, tol float64) float64 {
 	if sittings(need) > 1 {
 		free = 1
 	}
-	if need.OnTheMove {
+	if need.OnTheMove && need.ProteinG == 0 {
 		// During exercise carbohydrate with little protein and fat sits
 		// easier and empties from the stomach faster (common practice):
 		// a sports drink or gel before a shake or milk.
@@ -399,6 +404,16 @@ func score(items []Item, need Need, tol float64) float64 {
 		if sum > 0 {
 			s += 0.5 * other / sum
 		}
+	}
+	if need.ProteinG > 0 {
+		// The share of the feed's protein the foods leave unmet, weighed
+		// like a full tolerance's miss of the carbohydrate (this project's
+		// own weight): a shake or milk before a third gel.
+		protein := 0.0
+		for _, it := range items {
+			protein += it.ProteinG
+		}
+		s += math.Max(0, need.ProteinG-protein) / need.ProteinG
 	}
 	for _, it := range items {
 		s += 0.3 * math.Max(0, math.Ceil(it.Portions/sittings(need))-free)

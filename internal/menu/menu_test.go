@@ -325,3 +325,41 @@ func TestOnlyCarbohydrateFoodsSuggested(t *testing.T) {
 		}
 	}
 }
+
+// TestFirstRepletionFeedBringsProtein: the first feed after a session asks
+// for about 0.3 g/kg protein with its carbohydrate (ACSM/AND/DC 2016) — for
+// a 90 kg rower about 27 g with 50 g of carbohydrate. On the IFCT 2017
+// extract (Longvah T et al., Indian Food Composition Tables 2017, National
+// Institute of Nutrition, Hyderabad) with 250 g portions of milk, the
+// suggestion must bring a good part of that protein, where carbohydrate
+// alone (fruit, sugar) brings almost none.
+func TestFirstRepletionFeedBringsProtein(t *testing.T) {
+	foods := loadIFCT(t)
+	for i := range foods {
+		if foods[i].Liquid {
+			foods[i].PortionG, foods[i].PortionName = 250, "1 glass (250 ml)"
+		}
+	}
+	protein := func(s Suggestion) float64 {
+		p := 0.0
+		for _, it := range s.Items {
+			p += it.Portions * it.Food.PortionG * it.Food.ProtPer100 / 100
+		}
+		return p
+	}
+	plain, ok := Suggest(foods, Need{ChoG: 50, PreferOnTheMove: true})
+	if !ok {
+		t.Fatal("no suggestion without a protein target")
+	}
+	with, ok := Suggest(foods, Need{ChoG: 50, PreferOnTheMove: true, ProteinG: 27})
+	if !ok {
+		t.Fatal("no suggestion with a protein target")
+	}
+	if d := sumFromFigures(with) - 50; math.Abs(d) > Tolerance(50) {
+		t.Errorf("carbohydrate %.1f g is outside 50 ± %.0f g", sumFromFigures(with), Tolerance(50))
+	}
+	if p := protein(with); p < 10 || p <= protein(plain) {
+		t.Errorf("with 27 g protein wanted the suggestion brings %.1f g (%s); without, %.1f g (%s)",
+			p, with.Text(), protein(plain), plain.Text())
+	}
+}

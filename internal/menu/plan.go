@@ -85,6 +85,9 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 			if strings.Contains(f.Label, "pre-event") {
 				needs[i].LowFibre, needs[i].DrinksG = true, preEventDrinksG
 			}
+			if strings.Contains(f.Label, "recovery") {
+				needs[i].ProteinG = f.ProteinG
+			}
 			if needs[i].OnTheMove && plan.DuringEvent != nil {
 				needs[i].Hours = plan.DuringEvent.DurationMin / 60 // the in-event total
 			}
@@ -110,7 +113,7 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 	if rp := plan.Repletion; rp != nil {
 		needs := make([]Need, len(rp.Feeds))
 		for i, f := range rp.Feeds {
-			needs[i] = o.apply(Need{ChoG: f.ChoG, PreferOnTheMove: true})
+			needs[i] = o.apply(Need{ChoG: f.ChoG, PreferOnTheMove: true, ProteinG: f.ProteinG})
 		}
 		sugg, ok := SuggestDay(foods, needs)
 		for i, f := range rp.Feeds {
