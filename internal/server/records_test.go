@@ -14,6 +14,8 @@ import (
 func TestClientCreateEditArchive(t *testing.T) {
 	a := newApp(t)
 	b, u := a.signedIn(store.RoleDietitian)
+	// The new-client form has a way back, like every other form.
+	b.get("/clients/new").mustContain(t, `<a class="button secondary" href="/clients">Cancel</a>`)
 	name := unique("Ada Lindqvist")
 	res := b.post("/clients", url.Values{"name": {name}, "sex": {"female"}, "date_of_birth": {"1994-06-02"}, "height_cm": {"168,5"},
 		"sport": {"Marathon"}, "cautions": {"Coeliac disease"}, "notes": {"Prefers rice."}})

@@ -32,6 +32,10 @@ const (
 )
 
 func (in *clientForm) check(f forms.Form, today time.Time) {
+	if h := in.HeightCm; h != nil && *h >= 1 && *h <= 2.5 {
+		// 1.72 is a height in metres; say so rather than only "100 to 250 cm".
+		f.Errors["height_cm"] = fmt.Sprintf("Height is in centimetres: %s m is %s cm.", web.Num(*h, 2), web.Num(*h*100, 1))
+	}
 	if in.DateOfBirth != nil {
 		earliest := today.AddDate(-maxClientAge, 0, 0)
 		latest := today.AddDate(-minClientAge, 0, 0)

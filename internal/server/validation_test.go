@@ -46,6 +46,7 @@ func TestValidationMessages(t *testing.T) {
 		{"client sex", "/clients", "clients", merge(clientOK, "sex", "other"), "sex", "Choose female or male: the physiology equations need one of the two.", ""},
 		{"height low", "/clients", "clients", merge(clientOK, "height_cm", "99"), "height_cm", "Height must be between 100 and 250 cm.", `value="99"`},
 		{"height high", "/clients", "clients", merge(clientOK, "height_cm", "251"), "height_cm", "Height must be between 100 and 250 cm.", `value="251"`},
+		{"height in metres", "/clients", "clients", merge(clientOK, "height_cm", "1,72"), "height_cm", "Height is in centimetres: 1.72 m is 172 cm.", `value="1,72"`},
 		{"height not a number", "/clients", "clients", merge(clientOK, "height_cm", "tall"), "height_cm", "Height must be a number.", `value="tall"`},
 		{"date of birth future", "/clients", "clients", merge(clientOK, "date_of_birth", "2030-01-01"), "date_of_birth",
 			"Date of birth must be between Tue 1 Mar 1927 and Tue 1 Mar 2022 (an age of 5 to 100 years).", `value="2030-01-01"`},
