@@ -146,7 +146,14 @@ func currentPlan(plans []linkPlan, now time.Time) (p linkPlan, today string, ok 
 		sort.SliceStable(covering, func(i, j int) bool { return publishedAt(covering[i]).After(publishedAt(covering[j])) })
 		p = covering[0]
 	} else if len(upcoming) > 0 {
-		sort.SliceStable(upcoming, func(i, j int) bool { return upcoming[i].first < upcoming[j].first })
+		// The plan that starts first; of two from the same day (two plans
+		// for one event), the one published last.
+		sort.SliceStable(upcoming, func(i, j int) bool {
+			if upcoming[i].first != upcoming[j].first {
+				return upcoming[i].first < upcoming[j].first
+			}
+			return publishedAt(upcoming[i]).After(publishedAt(upcoming[j]))
+		})
 		p = upcoming[0]
 	} else {
 		return linkPlan{}, "", false
@@ -274,16 +281,27 @@ func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
 	}
 	now := s.Now()
 	cal := sheet.ICSCalendar{ProdID: "-//Larder//Client link//EN", Name: "Fuelling plan · " + firstName(c.Name)}
+	owners := dayOwners(plans)
 	for _, p := range plans {
 		if p.last < now.Add(-feedLinkWindow).In(p.loc).Format(time.DateOnly) {
 			continue
 		}
+		result := p.Version.Result
+		result.Days = nil
+		for _, d := range p.Version.Result.Days {
+			if owners[d.Date] == p.Plan.ID {
+				result.Days = append(result.Days, d)
+			}
+		}
+		if len(result.Days) == 0 {
+			continue // every day of it is covered by a plan published later
+		}
 		ip := sheet.ICSPlan{PlanID: p.Plan.ID, Version: p.Version.Version, Published: publishedAt(p),
-			Plan: p.Version.Result, Suggestions: withoutNoFit(p.Suggestions)}
+			Plan: result, Suggestions: withoutNoFit(p.Suggestions)}
 		if strings.TrimSpace(c.Cautions) != "" {
 			ip.FoodNote = "The food ideas are examples only. Swap them for foods that suit your health note and that you know you tolerate."
 		}
-		if ev := p.Version.Request.Event; ev != nil {
+		if ev := p.Version.Request.Event; ev != nil && owners[ev.StartsAt.In(p.loc).Format(time.DateOnly)] == p.Plan.ID {
 			start := ev.StartsAt
 			ip.EventStart, ip.EventDurationMin, ip.EventName = &start, ev.ExpectedDurationMin, "Event start"
 			if p.Plan.EventID != nil {
@@ -302,6 +320,26 @@ func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
 	w.Header().Set("Content-Type", "text/calendar; charset=utf-8")
 	w.Header().Set("Content-Disposition", `inline; filename="plan.ics"`)
 	_, _ = w.Write(buf.Bytes())
+}
+
+// dayOwners gives, for each plan date, the plan whose figures the client
+// follows that day: of the published plans covering it, the one published
+// last — the same rule as the phone page's — so two plans for one event do
+// not put two sets of feeding times in the client's calendar.
+func dayOwners(plans []linkPlan) map[string]int64 {
+	owner := map[string]linkPlan{}
+	for _, p := range plans {
+		for _, d := range p.Version.Result.Days {
+			if cur, ok := owner[d.Date]; !ok || publishedAt(p).After(publishedAt(cur)) {
+				owner[d.Date] = p
+			}
+		}
+	}
+	out := make(map[string]int64, len(owner))
+	for date, p := range owner {
+		out[date] = p.Plan.ID
+	}
+	return out
 }
 
 func withoutNoFit(m map[string]string) map[string]string {

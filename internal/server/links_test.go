@@ -511,3 +511,55 @@ func checkICS(t *testing.T, stream string) []string {
 	}
 	return lines
 }
+
+// TestClientLinkOverlappingPlansLatestWins: a dietitian publishes a second
+// plan over days an earlier one covers (a redo for the same event). On each
+// day the client follows the plan published last: the calendar carries one
+// set of feeding times a day, not both, and the phone page shows the later
+// plan when both start on the same day.
+func TestClientLinkOverlappingPlansLatestWins(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	c := a.newClient(unique("Ada Overlap"))
+	_, older := storePlan(t, a, c.ID, "First week plan", weekRequest("2027-03-05", 7), true, "")
+	_, newer := storePlan(t, a, c.ID, "Second week plan", weekRequest("2027-03-08", 7), true, "")
+	token := makeLink(t, b, c.ID, "")
+
+	_, ics := getPublic(t, a, "/c/"+token+"/plan.ics")
+	joined := strings.Join(checkICS(t, ics), "\n")
+	want := 0
+	for _, d := range older.Days {
+		if d.Date < "2027-03-08" {
+			want += len(d.Feeds)
+		}
+	}
+	for _, d := range newer.Days {
+		want += len(d.Feeds)
+	}
+	if n := strings.Count(joined, "BEGIN:VEVENT"); n != want {
+		t.Errorf("%d calendar entries, want %d: the older plan's days from 8 Mar are covered by the newer plan", n, want)
+	}
+	for _, d := range older.Days {
+		if d.Date >= "2027-03-08" && len(d.Feeds) > 0 &&
+			strings.Contains(joined, "DTSTART:"+d.Feeds[0].At.UTC().Format("20060102T150405Z")) &&
+			strings.Count(joined, "DTSTART:"+d.Feeds[0].At.UTC().Format("20060102T150405Z")) > 1 {
+			t.Errorf("two entries at %s: both plans' feeds are in the calendar", d.Feeds[0].At)
+		}
+	}
+
+	// Two plans from the same first day: the page shows the one published last.
+	c2 := a.newClient(unique("Bea Redo"))
+	heavier := weekRequest("2027-03-08", 7)
+	heavier.Athlete.BodyMassKg = 80 // the redo at a new body mass
+	_, first := storePlan(t, a, c2.ID, "Week plan as first drawn", weekRequest("2027-03-08", 7), true, "")
+	_, redo := storePlan(t, a, c2.ID, "Week plan redone", heavier, true, "")
+	token2 := makeLink(t, b, c2.ID, "")
+	_, page := getPublic(t, a, "/c/"+token2)
+	firstG, redoG := web.Num(first.Days[0].ChoG, 0)+" g carbohydrate", web.Num(redo.Days[0].ChoG, 0)+" g carbohydrate"
+	if firstG == redoG {
+		t.Fatalf("the two plans' first days both hold %s", firstG)
+	}
+	if !strings.Contains(page, redoG) || strings.Contains(page, firstG) {
+		t.Errorf("the phone page does not show the plan published last (%s, not %s)", redoG, firstG)
+	}
+}
