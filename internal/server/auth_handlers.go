@@ -32,7 +32,12 @@ func (s *Server) signInPage(w http.ResponseWriter, r *http.Request) {
 	}
 	f := forms.New()
 	f.Values.Set("next", r.URL.Query().Get("next"))
-	s.Render(w, r, http.StatusOK, "Sign in", "", web.SignIn(f))
+	notice := ""
+	if r.URL.Query().Has("signed_out") {
+		// On a shared clinic computer the next person should see that the last one left.
+		notice = "You have signed out."
+	}
+	s.Render(w, r, http.StatusOK, "Sign in", "", web.SignIn(f, notice))
 }
 
 func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
@@ -43,7 +48,7 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 	f := forms.Decode(r.PostForm, &in)
 	f.Values.Del("password")
 	if f.Has() {
-		s.Render(w, r, http.StatusUnprocessableEntity, "Sign in", "", web.SignIn(f))
+		s.Render(w, r, http.StatusUnprocessableEntity, "Sign in", "", web.SignIn(f, ""))
 		return
 	}
 	u, err := s.Store.UserByEmail(r.Context(), in.Email)
@@ -63,11 +68,11 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 	case err != nil || !ok:
 		s.Log.Info("sign-in refused", "email", in.Email)
 		f.Errors.Add("password", "The email or password is not right. Please try again.")
-		s.Render(w, r, http.StatusUnauthorized, "Sign in", "", web.SignIn(f))
+		s.Render(w, r, http.StatusUnauthorized, "Sign in", "", web.SignIn(f, ""))
 		return
 	case u.Disabled:
 		f.Errors.Add("email", "This account is disabled. Ask an administrator of the practice to enable it.")
-		s.Render(w, r, http.StatusForbidden, "Sign in", "", web.SignIn(f))
+		s.Render(w, r, http.StatusForbidden, "Sign in", "", web.SignIn(f, ""))
 		return
 	}
 	// A new token on sign-in: a session id planted before sign-in is useless after.
@@ -93,7 +98,7 @@ func (s *Server) signOut(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	Redirect(w, r, "/signin")
+	Redirect(w, r, "/signin?signed_out=1")
 }
 
 type setupForm struct {

@@ -93,7 +93,13 @@ func TestSignOutEndsSessionServerSide(t *testing.T) {
 		t.Fatal("no session cookie after sign-in")
 	}
 	before := a.count(`SELECT count(*) FROM sessions`)
-	b.post("/signout", nil).mustRedirect(t, "/signin")
+	out := b.post("/signout", nil)
+	out.mustRedirect(t, "/signin")
+	// The person who signed out is told so on the page they land on.
+	b.get(out.location).mustContain(t, "You have signed out.")
+	if strings.Contains(b.get("/signin").body, "You have signed out.") {
+		t.Error("the sign-out notice shows on a plain visit to the sign-in page")
+	}
 	if after := a.count(`SELECT count(*) FROM sessions`); after != before-1 {
 		t.Fatalf("sessions rows %d before sign-out, %d after", before, after)
 	}
