@@ -414,3 +414,63 @@ func TestKind(t *testing.T) {
 		}
 	}
 }
+
+// TestMealsAreEaten: a breakfast, lunch, dinner or supper gets at least one
+// food that is not a drink, and no gel (a gel is for exercise). A practice's
+// gel and a shake stand beside the IFCT 2017 extract (Longvah T et al.,
+// Indian Food Composition Tables 2017, National Institute of Nutrition,
+// Hyderabad); the shake and gel figures are label-style figures of the
+// practice's own.
+func TestMealsAreEaten(t *testing.T) {
+	foods := loadIFCT(t)
+	gel := Food{ID: 900, Name: "Energy gel", ChoPer100: 62.5, PortionName: "1 sachet (40 g)", PortionG: 40, Portable: true, Practice: true}
+	shake := Food{ID: 901, Name: "Recovery shake, made up", ChoPer100: 12, ProtPer100: 5, FatPer100: 1,
+		PortionName: "1 shaker (400 ml)", PortionG: 400, Liquid: true, Practice: true}
+	foods = append(foods, gel, shake)
+	plan := fuel.Plan{TimeZone: "UTC", Days: []fuel.Day{{Date: "2027-03-01", Feeds: []fuel.Feed{
+		{At: time.Date(2027, 3, 1, 7, 0, 0, 0, time.UTC), Label: "breakfast", ChoG: 48},
+		{At: time.Date(2027, 3, 1, 12, 30, 0, 0, time.UTC), Label: "lunch", ChoG: 73},
+		{At: time.Date(2027, 3, 1, 19, 0, 0, 0, time.UTC), Label: "dinner", ChoG: 25},
+		{At: time.Date(2027, 3, 1, 21, 0, 0, 0, time.UTC), Label: "supper", ChoG: 62.5},
+	}}}}
+	liquid := map[string]bool{}
+	for _, f := range foods {
+		liquid[f.Name] = f.Liquid
+	}
+	sugg := PlanSuggestions(plan, foods)
+	for i, f := range plan.Days[0].Feeds {
+		text := sugg[FeedKey("day", "2027-03-01", i)]
+		if text == "" || text == NoFit {
+			t.Errorf("%s: no suggestion", f.Label)
+			continue
+		}
+		if strings.Contains(text, "gel") {
+			t.Errorf("%s suggests a gel: %s", f.Label, text)
+		}
+		solid := false
+		for _, part := range strings.Split(text, "; ") {
+			name, _, _ := strings.Cut(part, ": ")
+			solid = solid || !liquid[name]
+		}
+		if !solid {
+			t.Errorf("%s is drinks only: %s", f.Label, text)
+		}
+	}
+	for _, target := range []float64{48, 25} {
+		s, ok := Suggest(foods, Need{ChoG: target, Meal: true})
+		if !ok {
+			t.Fatalf("%v g meal: no suggestion", target)
+		}
+		solid := false
+		for _, it := range s.Items {
+			solid = solid || !it.Food.Liquid
+		}
+		if !solid {
+			t.Errorf("%v g meal is drinks only: %s", target, s.Text())
+		}
+	}
+	// A snack may still be a gel: the rule is for meals.
+	if s, ok := Suggest([]Food{gel}, Need{ChoG: 25}); !ok || !strings.Contains(s.Text(), "gel") {
+		t.Errorf("a 25 g feed from gels only: %q %v", s.Text(), ok)
+	}
+}

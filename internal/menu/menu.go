@@ -62,6 +62,10 @@ type Need struct {
 	// before those that bring carbohydrate alone, so the suggestion does
 	// not read as gels for a feed that asks for 25 g of protein.
 	ProteinG float64
+	// Meal: a breakfast, lunch, dinner or supper, which is eaten: at least
+	// one of its foods is not a drink (a 600 ml shake read badly as a
+	// dinner), and gels are left out.
+	Meal bool
 	// Avoid lists food IDs to leave out when an alternative exists, so that
 	// successive feeds of a day do not all suggest the same food.
 	Avoid []int64
@@ -220,6 +224,9 @@ func candidates(foods []Food, need Need) []Food {
 		}
 		if need.OnTheMove && !f.Liquid && !f.Portable {
 			continue
+		}
+		if need.Meal && isGel(f) {
+			continue // a gel is for exercise, not a meal
 		}
 		if avoid[f.ID] {
 			avoided = append(avoided, f)
@@ -436,12 +443,17 @@ func score(items []Item, need Need, tol float64) float64 {
 // fits tells whether a combination meets the target within tol and keeps
 // its drinks within the cap.
 func fits(items []Item, need Need, tol float64) bool {
-	sum, drinks := 0.0, 0.0
+	sum, drinks, solids := 0.0, 0.0, 0
 	for _, it := range items {
 		sum += it.ChoG
 		if it.Food.Liquid {
 			drinks += it.Grams
+		} else {
+			solids++
 		}
+	}
+	if need.Meal && solids == 0 {
+		return false
 	}
 	return math.Abs(sum-need.ChoG) <= tol && drinks <= drinkLimit(need)+1e-9
 }

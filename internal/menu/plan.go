@@ -57,6 +57,15 @@ func (o Options) apply(n Need) Need {
 	return n
 }
 
+// isMeal tells the day's main meals by the engine's feed labels.
+func isMeal(label string) bool {
+	switch label {
+	case "breakfast", "lunch", "dinner", "supper":
+		return true
+	}
+	return false
+}
+
 // PlanSuggestions makes the food suggestions of every feed of a plan, by
 // FeedKey: day feeds in order (low-fibre on the days the plan marks so, on the
 // move for the in-event share of the event day, drinks and portable foods
@@ -81,7 +90,7 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 		for i, f := range d.Feeds {
 			needs[i] = o.apply(Need{ChoG: f.ChoG, LowFibre: d.LowFibre, OnTheMove: strings.Contains(f.Label, "during"),
 				PreferOnTheMove: strings.Contains(f.Label, "refuel") || strings.Contains(f.Label, "recovery"),
-				Ready:           strings.Contains(f.Label, "snack")})
+				Ready:           strings.Contains(f.Label, "snack"), Meal: isMeal(f.Label)})
 			if strings.Contains(f.Label, "pre-event") {
 				needs[i].LowFibre, needs[i].DrinksG = true, preEventDrinksG
 			}
