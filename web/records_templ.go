@@ -127,7 +127,7 @@ func deleteForm(action, what string) templ.Component {
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 8, "\" class=\"stack\"><p>Entered by mistake? Deleting removes it for good; the audit log keeps a record of what it said.</p><button type=\"submit\" class=\"danger\">Delete ")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 8, "\" class=\"stack\"><p>Entered by mistake? Deleting removes it for good; Recent changes on the client page still show that it was deleted.</p><button type=\"submit\" class=\"danger\">Delete ")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}

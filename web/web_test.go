@@ -1,7 +1,9 @@
 package web
 
 import (
+	"context"
 	"encoding/json"
+	"strings"
 	"testing"
 	"time"
 
@@ -46,5 +48,17 @@ func TestUTCStampAndOneDecimal(t *testing.T) {
 		if got := OneDecimal(in); got != want {
 			t.Errorf("OneDecimal(%v) = %q, want %q", in, got, want)
 		}
+	}
+}
+
+// The delete box names the history as the client page does ("Recent
+// changes"), not by its storage name.
+func TestDeleteFormWords(t *testing.T) {
+	var b strings.Builder
+	if err := deleteForm("/clients/1/body-mass/2/delete", "this measurement").Render(context.Background(), &b); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(b.String(), "Recent changes on the client page still show that it was deleted.") || strings.Contains(strings.ToLower(b.String()), "audit") {
+		t.Errorf("delete form reads %q", b.String())
 	}
 }
