@@ -252,6 +252,9 @@ func (s *Server) renderPlanStart(w http.ResponseWriter, r *http.Request, status 
 		return
 	}
 	v.TrainingNote = fmt.Sprintf("Sessions logged or planned from %s to %s. Edit the training log to change them.", web.Date(from), web.Date(to))
+	if len(ts) == 0 {
+		v.TrainingNote = fmt.Sprintf("No sessions logged or planned from %s to %s: the plan treats those days as rest days. Add sessions to the training log first if there are any.", web.Date(from), web.Date(to))
+	}
 	for _, t := range ts {
 		v.Training = append(v.Training, web.TrainingLine{Date: web.Date(t.OnDate), Start: t.StartTime,
 			What: sessionText(t), Status: t.Status})

@@ -702,3 +702,17 @@ func TestFieldWordsForRecordsOnTheClientPage(t *testing.T) {
 		t.Errorf("fieldWords for a training error = %q", got)
 	}
 }
+
+// TestNewPlanFormSaysWhenNoTraining: a client with nothing in the training
+// log gets a plain sentence, not an empty table under "Training the plan
+// will use".
+func TestNewPlanFormSaysWhenNoTraining(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	c := a.newClient(unique("Nova Empty"))
+	res := b.get("/clients/" + itoa64(c.ID) + "/plans/new?kind=week")
+	if res.status != http.StatusOK {
+		t.Fatalf("status %d", res.status)
+	}
+	res.mustContain(t, "No sessions logged or planned from", "rest days", "No body mass on record")
+}
