@@ -150,7 +150,8 @@ func Modalities() []Option {
 func Zones() []Option {
 	out := []Option{{"", "—"}}
 	for _, z := range store.Zones {
-		out = append(out, Option{z, z})
+		// Capitalised like the activity choices beside it; the table says "tempo zone".
+		out = append(out, Option{z, strings.ToUpper(z[:1]) + z[1:]})
 	}
 	return out
 }

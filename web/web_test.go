@@ -62,3 +62,19 @@ func TestDeleteFormWords(t *testing.T) {
 		t.Errorf("delete form reads %q", b.String())
 	}
 }
+
+// The zone choices read like the activity choices: "Endurance", not "endurance".
+func TestZoneChoicesCapitalised(t *testing.T) {
+	got := Zones()
+	if len(got) != len(store.Zones)+1 || got[0].Value != "" {
+		t.Fatalf("Zones() = %v", got)
+	}
+	for i, z := range store.Zones {
+		if o := got[i+1]; o.Value != z || o.Label != strings.ToUpper(z[:1])+z[1:] {
+			t.Errorf("choice %d = %+v for zone %q", i+1, o, z)
+		}
+	}
+	if got[2].Label != "Endurance" {
+		t.Errorf("second zone reads %q", got[2].Label)
+	}
+}
