@@ -563,3 +563,23 @@ func TestClientLinkOverlappingPlansLatestWins(t *testing.T) {
 		t.Errorf("the phone page does not show the plan published last (%s, not %s)", redoG, firstG)
 	}
 }
+
+// TestClientLinkHealthNoteIsTheDietitians: a recorded caution is written by
+// staff, often about the client ("her diabetes team"), so the phone page
+// presents it as a note from the dietitian's records, not as the client's own.
+func TestClientLinkHealthNoteIsTheDietitians(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	c := a.newClient(unique("Iris Note"))
+	c.Cautions = "Type 1 diabetes: changes agreed with her diabetes team"
+	if err := a.st.UpdateClient(context.Background(), store.System, &c); err != nil {
+		t.Fatal(err)
+	}
+	storePlan(t, a, c.ID, "Week plan", weekRequest("2027-03-01", 7), true, "")
+	token := makeLink(t, b, c.ID, "")
+	_, page := getPublic(t, a, "/c/"+token)
+	response{body: page}.mustContain(t, "Health note from your dietitian’s records: Type 1 diabetes: changes agreed with her diabetes team")
+	if strings.Contains(page, "Your own health note") {
+		t.Error("the phone page calls the dietitian's note the client's own")
+	}
+}
