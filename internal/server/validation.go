@@ -260,6 +260,13 @@ func (in *eventForm) check(f forms.Form, today time.Time) {
 	}
 	if t.Before(today.AddDate(-5, 0, 0)) || t.After(today.AddDate(5, 0, 0)) {
 		f.Errors.Add("starts_at", "Start must be within five years of today.")
+		return
+	}
+	// A clock time skipped when the clocks go forward would silently move an hour.
+	typed, _ := forms.ParseLocalDateTime(in.StartsAt, time.UTC)
+	if shown := t.In(t.Location()); shown.Format("2006-01-02 15:04") != typed.Format("2006-01-02 15:04") {
+		f.Errors.Add("starts_at", fmt.Sprintf("%s does not exist in %s on %s: the clocks go forward then. Give the start as the clocks there will show it, such as %s.",
+			typed.Format("15:04"), in.TimeZone, web.Date(typed), shown.Format("15:04")))
 	}
 }
 
