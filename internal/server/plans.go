@@ -402,6 +402,11 @@ func decodePlanStart(values url.Values, c store.Client, events []store.Event) (p
 		if in.Days < 1 && f.Err("days") == "" {
 			f.Errors.Add("days", "A training-week plan needs at least one day.")
 		}
+		if in.Days > 28 {
+			// The tag allows 0 for the other kinds, which send no days;
+			// a week plan's own range is 1 to 28.
+			f.Errors["days"] = "A training-week plan covers 1 to 28 days."
+		}
 	}
 	return pi, f
 }

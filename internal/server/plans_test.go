@@ -119,6 +119,8 @@ func TestPlanFormRefusesBadInput(t *testing.T) {
 		{planForm("repletion", "58", "session_end", "2027-03-02T15:30", "next_start", "2027-03-02T09:30", "time_zone", "Europe/Oslo"), []string{"The next session must start after the end of this one."}},
 		{planForm("repletion", "58", "time_zone", "Mars/Olympus"), []string{"needs the end of the session", "Time zone must be a time zone name"}},
 		{planForm("week", "58", "days", "0"), []string{"needs its first day"}},
+		{planForm("week", "58", "start_date", "2027-03-01", "days", "99"), []string{"A training-week plan covers 1 to 28 days."}},
+		{planForm("week", "58,5", "start_date", "2027-03-01", "days", "3,5"), []string{"Number of days must be a whole number."}},
 	} {
 		res := b.post("/clients/"+itoa64(c)+"/plans", tc.form)
 		if res.status != http.StatusUnprocessableEntity {
