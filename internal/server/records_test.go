@@ -289,3 +289,20 @@ func TestFormAddressOpenedDirectly(t *testing.T) {
 	}
 	res.mustContain(t, "This address only receives a filled-in form")
 }
+
+// The line under a client's name leaves out the age when no date of birth is
+// recorded, rather than ending in a lone dash.
+func TestClientHeaderWithoutDateOfBirth(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	c := a.newClient(unique("No Birthday"))
+	page := b.get("/clients/" + itoa(c.ID))
+	i := strings.Index(page.body, `<p class="sub">`)
+	if i < 0 {
+		t.Fatalf("no line under the name\n%s", page.body)
+	}
+	sub := page.body[i : i+strings.Index(page.body[i:], "</p>")]
+	if !strings.Contains(sub, "Female") || strings.Contains(sub, "—") {
+		t.Errorf("line under the name = %q", sub)
+	}
+}
