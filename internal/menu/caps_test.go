@@ -474,3 +474,32 @@ func TestMealsAreEaten(t *testing.T) {
 		t.Errorf("a 25 g feed from gels only: %q %v", s.Text(), ok)
 	}
 }
+
+// TestInEventNoRecoveryShake: at a dietitian's 95 g/h over a 3 h 15 min
+// marathon (309 g in all) a recovery shake, at about 0.5 g of protein and
+// fat per g of carbohydrate, fitted the total and was suggested as the
+// in-event drink. During exercise carbohydrate with little protein and fat
+// is the choice (common practice): sports drink and gels, never the shake.
+// Label-style figures of a practice's own products; after a session the
+// shake stays allowed.
+func TestInEventNoRecoveryShake(t *testing.T) {
+	drink := Food{ID: 910, Name: "Sports drink (6 %)", ChoPer100: 6, PortionName: "1 bottle (500 ml)", PortionG: 500, Liquid: true, Portable: true, Practice: true}
+	gel := Food{ID: 911, Name: "Energy gel", ChoPer100: 62, FibrePer100: 0.5, PortionName: "1 sachet (40 g)", PortionG: 40, Portable: true, Practice: true}
+	shake := Food{ID: 912, Name: "Recovery shake, made up", ChoPer100: 12, ProtPer100: 5, FatPer100: 1,
+		PortionName: "1 shaker (400 ml)", PortionG: 400, Liquid: true, Practice: true}
+	foods := []Food{drink, gel, shake}
+	s, ok := Suggest(foods, Need{ChoG: 309, OnTheMove: true, Hours: 3.25})
+	if !ok {
+		t.Fatal("no in-event suggestion from drink and gels")
+	}
+	checkWithin(t, s, 309)
+	for _, it := range s.Items {
+		if it.Food.ID == shake.ID {
+			t.Errorf("in-event suggestion has the recovery shake: %s", s.Text())
+		}
+	}
+	after, ok := Suggest([]Food{shake}, Need{ChoG: 48, PreferOnTheMove: true})
+	if !ok || after.Items[0].Food.ID != shake.ID {
+		t.Errorf("after a session the shake is refused: %q %v", after.Text(), ok)
+	}
+}

@@ -66,6 +66,9 @@ type Need struct {
 	// one of its foods is not a drink (a 600 ml shake read badly as a
 	// dinner), and gels are left out.
 	Meal bool
+	// afterExercise marks the drinks-and-portables first try of a
+	// PreferOnTheMove need: on the move, but not during exercise.
+	afterExercise bool
 	// Avoid lists food IDs to leave out when an alternative exists, so that
 	// successive feeds of a day do not all suggest the same food.
 	Avoid []int64
@@ -149,6 +152,18 @@ func readyToEat(f Food) bool {
 
 var weighedRaw = regexp.MustCompile(`(?i)\b(dry|uncooked|raw|flour)\b`)
 
+// maxOtherPerCho: during exercise a food carries at most 0.4 g of protein
+// and fat together per g of carbohydrate. Sports drinks, gels, fruit and
+// most bars pass; a recovery shake (about 0.5) and milk (over 1) do not:
+// carbohydrate with little protein and fat empties from the stomach faster
+// (common practice). The threshold is this project's own.
+const maxOtherPerCho = 0.4
+
+// duringExercise tells an in-event feed from the other on-the-move ones.
+func duringExercise(need Need) bool {
+	return need.OnTheMove && !need.afterExercise && need.ProteinG == 0
+}
+
 // wantsReady tells the feeds that come during or soon after exercise, where
 // ready-to-eat foods and the practice's own products are preferred.
 func wantsReady(need Need) bool { return need.OnTheMove || need.PreferOnTheMove }
@@ -178,7 +193,7 @@ func IsLowFibre(f Food) bool {
 func Suggest(foods []Food, need Need) (s Suggestion, ok bool) {
 	if need.PreferOnTheMove && !need.OnTheMove {
 		quick := need
-		quick.OnTheMove, quick.PreferOnTheMove = true, false
+		quick.OnTheMove, quick.PreferOnTheMove, quick.afterExercise = true, false, true
 		if s, ok := Suggest(foods, quick); ok {
 			return s, true
 		}
@@ -224,6 +239,9 @@ func candidates(foods []Food, need Need) []Food {
 		}
 		if need.OnTheMove && !f.Liquid && !f.Portable {
 			continue
+		}
+		if duringExercise(need) && f.ProtPer100+f.FatPer100 > maxOtherPerCho*f.ChoPer100 {
+			continue // a recovery shake or milk is no in-event drink
 		}
 		if need.Meal && isGel(f) {
 			continue // a gel is for exercise, not a meal
