@@ -65,6 +65,15 @@ func (s *Server) clientUpdate(w http.ResponseWriter, r *http.Request) {
 	var in clientForm
 	f := forms.Decode(r.PostForm, &in)
 	in.check(f, s.Today())
+	if loaded := r.PostForm.Get("loaded"); loaded != "" && loaded != clientStamp(c) {
+		// Saving would silently undo the other change; show it, and let a
+		// second save (now on the fresh version) go through on purpose.
+		f.Errors.Add("loaded", "Someone saved changes to this client at "+web.UTCStamp(c.UpdatedAt)+
+			" UTC, after you opened this form. Nothing was saved. Check the client page for their change; saving this form again replaces it with what is below.")
+		f.Values.Set("loaded", clientStamp(c))
+		s.Render(w, r, http.StatusConflict, "Edit "+c.Name, "clients", web.ClientForm(web.ClientFormData{Client: &c, Form: f}))
+		return
+	}
 	if f.Has() {
 		s.Render(w, r, http.StatusUnprocessableEntity, "Edit "+c.Name, "clients", web.ClientForm(web.ClientFormData{Client: &c, Form: f}))
 		return

@@ -306,3 +306,45 @@ func TestClientHeaderWithoutDateOfBirth(t *testing.T) {
 		t.Errorf("line under the name = %q", sub)
 	}
 }
+
+// Two tabs on one client: the save from the tab opened before the other
+// tab's save is refused in words (it would undo that change), keeps what was
+// typed, and a second save goes through on purpose.
+func TestClientEditFromStaleTab(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	c := a.newClient(unique("Two Tabs"))
+	path := "/clients/" + itoa(c.ID)
+	edit := b.get(path + "/edit")
+	const marker = `name="loaded" value="`
+	i := strings.Index(edit.body, marker)
+	if i < 0 {
+		t.Fatalf("edit form carries no version\n%s", edit.body)
+	}
+	loaded := edit.body[i+len(marker):]
+	loaded = loaded[:strings.Index(loaded, `"`)]
+
+	// The other tab saves first.
+	other := c
+	other.Notes = "Prefers rice."
+	if err := a.st.UpdateClient(context.Background(), store.System, &other); err != nil {
+		t.Fatal(err)
+	}
+	stale := url.Values{"loaded": {loaded}, "name": {c.Name}, "sex": {"female"}, "sport": {"Trail running"}}
+	res := b.post(path, stale)
+	if res.status != http.StatusConflict {
+		t.Fatalf("stale save: status %d, want 409", res.status)
+	}
+	res.mustContain(t, "Someone saved changes to this client at", "Nothing was saved.", `id="err-loaded"`, `value="Trail running"`)
+	if got, _ := a.st.ClientByID(context.Background(), c.ID); got.Notes != "Prefers rice." || got.Sport != "Running" {
+		t.Fatalf("stale save changed the client: %+v", got)
+	}
+	// Saving again from the refused page replaces the other change knowingly.
+	j := strings.Index(res.body, marker)
+	fresh := res.body[j+len(marker):]
+	stale.Set("loaded", fresh[:strings.Index(fresh, `"`)])
+	b.post(path, stale).mustRedirect(t, path)
+	if got, _ := a.st.ClientByID(context.Background(), c.ID); got.Sport != "Trail running" || got.Notes != "" {
+		t.Fatalf("second save: %+v", got)
+	}
+}

@@ -60,8 +60,13 @@ func (in *clientForm) apply(c *store.Client) {
 	c.Cautions = in.Cautions
 }
 
+// clientStamp names the saved version of a client a form was opened on, so a
+// save from a stale tab can be told apart from one made on fresh details.
+func clientStamp(c store.Client) string { return strconv.FormatInt(c.UpdatedAt.UnixMicro(), 10) }
+
 func clientValues(c store.Client) url.Values {
 	v := url.Values{}
+	v.Set("loaded", clientStamp(c))
 	v.Set("name", c.Name)
 	if c.DateOfBirth != nil {
 		v.Set("date_of_birth", web.ISODate(*c.DateOfBirth))
