@@ -55,4 +55,17 @@ func TestBrowserRefusedValueKeepsDayTableOnPage(t *testing.T) {
 	if vs, _ := a.st.PlanVersions(t.Context(), id); len(vs) != 1 || vs[0].Revision != v.Revision {
 		t.Errorf("a refused save changed the draft")
 	}
+	// On a 1024 px screen the column heads wrap and the table still fits.
+	err = chromedp.Do(ctx, chromedp.EmulateViewport(1024, 800), chromedp.Navigate(planURL), chromedp.WaitVisible(chromedp.ID("plan-days")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	narrow, err := chromedp.Run(ctx, chromedp.Evaluate[float64](
+		`document.getElementById("plan-days").getBoundingClientRect().right - document.querySelector("main").getBoundingClientRect().right`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if narrow > 1 {
+		t.Errorf("on a 1024 px screen the day table sticks out %.0f px past the page's edge", narrow)
+	}
 }
