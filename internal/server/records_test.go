@@ -252,7 +252,7 @@ func TestTeamManagement(t *testing.T) {
 	if after.Disabled || after.PasswordHash == before.PasswordHash {
 		t.Fatal("enable or password reset did not happen")
 	}
-	admin.get("/team").mustContain(t, "New password for Newcomer: ")
+	admin.get("/team").mustContain(t, "New password for Newcomer: ", "they can change it under their name at the top of the page.")
 
 	// An admin cannot lock themselves out.
 	admin.post("/team/"+itoa(me.ID)+"/disable", nil).mustRedirect(t, "/team")

@@ -168,7 +168,7 @@ func (s *Server) teamResetPassword(w http.ResponseWriter, r *http.Request) {
 		s.StoreError(w, r, err)
 		return
 	}
-	s.Flash(r, "New password for "+u.Name+": "+password+" — give it to them privately; they can change it under their name.")
+	s.Flash(r, "New password for "+u.Name+": "+password+" — give it to them privately; they can change it under their name at the top of the page.")
 	Redirect(w, r, "/team")
 }
 
