@@ -2,6 +2,7 @@ package store
 
 import (
 	"context"
+	"strings"
 	"time"
 
 	"github.com/jackc/pgx/v5"
@@ -74,6 +75,26 @@ func clientDest(c *Client) []any {
 	return []any{&c.ID, &c.Name, &c.DateOfBirth, &c.Sex, &c.HeightCm, &c.Sport, &c.Notes, &c.Cautions, &c.ArchivedAt, &c.CreatedAt, &c.UpdatedAt}
 }
 
+// searchWords splits a search into words, each a LIKE pattern taken
+// literally; a client matches when every word is in the name or the sport,
+// in any order ("solvik maren" finds Maren Solvik).
+func searchWords(q string) []string {
+	words := strings.Fields(q)
+	out := make([]string, len(words))
+	for i, w := range words {
+		out[i] = likePattern(w)
+	}
+	return out
+}
+
+// foldSQL lower-cases a text expression and folds the accented Latin
+// letters of names to their base letters, so "Tomas" finds "Tomás" and the
+// other way round. (The unaccent extension would need a superuser.)
+func foldSQL(expr string) string {
+	return "translate(lower(" + expr + "), 'áàâäãåāăąéèêëēėęěíìîïīįóòôöõøōőúùûüūůűųýÿçćčñńňśšşžźżďđľĺłŕřťţğ', " +
+		"'aaaaaaaaaeeeeeeeeiiiiiioooooooouuuuuuuuyycccnnnssszzzddlllrrttg')"
+}
+
 // ListClients lists clients by name with their latest body mass and next event.
 func (s *Store) ListClients(ctx context.Context, f ClientFilter) ([]ClientRow, error) {
 	show := f.Show
@@ -86,9 +107,10 @@ func (s *Store) ListClients(ctx context.Context, f ClientFilter) ([]ClientRow, e
 			ORDER BY measured_on DESC, id DESC LIMIT 1) bm ON true
 		LEFT JOIN LATERAL (SELECT name, starts_at, time_zone FROM events WHERE client_id = c.id AND starts_at >= now() - interval '1 day'
 			ORDER BY starts_at LIMIT 1) ev ON true
-		WHERE ($1 = '' OR c.name ILIKE $2 OR c.sport ILIKE $2)
-		  AND ($3 = 'all' OR ($3 = 'active') = (c.archived_at IS NULL))
-		ORDER BY lower(c.name), c.id`, f.Query, likePattern(f.Query), show)
+		WHERE NOT EXISTS (SELECT 1 FROM unnest($1::text[]) w
+			WHERE NOT (`+foldSQL("c.name")+` LIKE `+foldSQL("w")+` OR `+foldSQL("c.sport")+` LIKE `+foldSQL("w")+`))
+		  AND ($2 = 'all' OR ($2 = 'active') = (c.archived_at IS NULL))
+		ORDER BY lower(c.name), c.id`, searchWords(f.Query), show)
 	if err != nil {
 		return nil, err
 	}

@@ -165,6 +165,20 @@ func TestListsAndOrder(t *testing.T) {
 	if rows, _ := st.ListClients(ctx, store.ClientFilter{Query: "100%_Sprint"}); len(rows) != 0 {
 		t.Fatalf("%% and _ acted as wildcards: %d rows", len(rows))
 	}
+	// Words match in any order, and accents fold both ways.
+	atag := uniq("Accent")
+	accented := store.Client{Name: atag + " Tomás Ångström", Sex: store.SexMale, Sport: "Road cycling"}
+	if err := st.CreateClient(ctx, store.System, &accented); err != nil {
+		t.Fatal(err)
+	}
+	for _, q := range []string{"tomas " + atag, "ANGSTROM tomás " + atag, atag + " cycling tomas", atag + "  road   Tomás"} {
+		if rows, _ := st.ListClients(ctx, store.ClientFilter{Query: q}); len(rows) != 1 || rows[0].ID != accented.ID {
+			t.Errorf("search %q found %d clients, want only %q", q, len(rows), accented.Name)
+		}
+	}
+	if rows, _ := st.ListClients(ctx, store.ClientFilter{Query: atag + " tomas running"}); len(rows) != 0 {
+		t.Errorf("a word matching neither name nor sport still found %d clients", len(rows))
+	}
 	d := func(s string) time.Time { t, _ := time.Parse("2006-01-02", s); return t }
 	for _, m := range []store.BodyMass{{MeasuredOn: d("2027-01-05"), MassKg: 80}, {MeasuredOn: d("2027-01-20"), MassKg: 79.5}, {MeasuredOn: d("2027-01-12"), MassKg: 79.8, BodyFatPct: func() *float64 { x := 14.0; return &x }()}} {
 		m.ClientID, m.EnteredUnit = c.ID, "kg"
