@@ -2,8 +2,10 @@ package server
 
 import (
 	"errors"
+	"fmt"
 	"net/http"
 	"strings"
+	"time"
 
 	"larder/internal/auth"
 	"larder/internal/forms"
@@ -40,6 +42,13 @@ func (s *Server) signInPage(w http.ResponseWriter, r *http.Request) {
 	s.Render(w, r, http.StatusOK, "Sign in", "", web.SignIn(f, notice))
 }
 
+// Sign-in pauses for an email after signInLimit wrong passwords within
+// signInWindow: enough for honest typos, far too few to guess a password.
+const (
+	signInLimit  = 10
+	signInWindow = 15 * time.Minute
+)
+
 func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 	if !s.ParseForm(w, r) {
 		return
@@ -49,6 +58,18 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 	f.Values.Del("password")
 	if f.Has() {
 		s.Render(w, r, http.StatusUnprocessableEntity, "Sign in", "", web.SignIn(f, ""))
+		return
+	}
+	failures, err := s.Store.SignInFailures(r.Context(), in.Email, time.Now().Add(-signInWindow))
+	if err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	if failures >= signInLimit {
+		// The password is not even checked, so guessing gains nothing.
+		s.Log.Warn("sign-in paused after repeated failures", "email", in.Email)
+		f.Errors.Add("password", fmt.Sprintf("Too many wrong passwords for this email in the last %d minutes. Wait a while and try again, or ask an administrator of the practice to reset your password.", int(signInWindow.Minutes())))
+		s.Render(w, r, http.StatusTooManyRequests, "Sign in", "", web.SignIn(f, ""))
 		return
 	}
 	u, err := s.Store.UserByEmail(r.Context(), in.Email)
@@ -67,6 +88,9 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 	switch {
 	case err != nil || !ok:
 		s.Log.Info("sign-in refused", "email", in.Email)
+		if err := s.Store.RecordSignInFailure(r.Context(), in.Email); err != nil {
+			s.Log.Warn("record sign-in failure", "err", err)
+		}
 		f.Errors.Add("password", "The email or password is not right. Please try again.")
 		s.Render(w, r, http.StatusUnauthorized, "Sign in", "", web.SignIn(f, ""))
 		return
@@ -81,6 +105,9 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	s.Sessions.Put(r.Context(), auth.KeyUserID, u.ID)
+	if err := s.Store.ClearSignInFailures(r.Context(), in.Email); err != nil {
+		s.Log.Warn("clear sign-in failures", "err", err)
+	}
 	if err := s.Store.Audit(r.Context(), store.Actor(u.ID), "sign_in", "user", u.ID, nil); err != nil {
 		s.Log.Warn("audit sign-in", "err", err)
 	}
