@@ -290,12 +290,43 @@ func (a athlete) sessions(today time.Time) []session {
 	for d := -42; d < last; d++ {
 		day := today.AddDate(0, 0, d)
 		weeksToGo := (last - d) / 7
-		for _, s := range a.week(day.Weekday(), weeksToGo) {
+		week := a.week(day.Weekday(), weeksToGo)
+		if t, ok := a.taper(d); ok {
+			week = t
+		}
+		for _, s := range week {
 			s.on = day
 			out = append(out, s)
 		}
 	}
 	return out
+}
+
+// taper gives the planned sessions of the last three days before an A
+// event, and none on the race day: short and easy, as an athlete about to
+// load would train (common practice), so the demo's loading plans start
+// from a believable week rather than intervals the day before a marathon.
+func (a athlete) taper(d int) ([]session, bool) {
+	for _, e := range a.events {
+		if e.priority != "A" {
+			continue
+		}
+		modality := e.modality
+		if modality == "triathlon" {
+			modality = "run"
+		}
+		switch e.inDays - d {
+		case 0:
+			return nil, true
+		case 1:
+			return []session{zone(clock("08:00"), modality, 20, "recovery", nil, "easy, with 4 short strides")}, true
+		case 2:
+			return []session{zone(clock("08:00"), modality, 30, "recovery", nil, "easy")}, true
+		case 3:
+			return []session{zone(clock("08:00"), modality, 40, "endurance", nil, "easy, a few minutes at race pace")}, true
+		}
+	}
+	return nil, false
 }
 
 func clock(s string) *string { return &s }

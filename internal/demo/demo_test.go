@@ -114,6 +114,19 @@ func TestDemoContents(t *testing.T) {
 		t.Fatalf("marathon starts %s local time, want 09:00", got)
 	}
 
+	// The days before her marathon are a taper: nothing longer than 40 min
+	// in the last three days (common practice before loading), no training
+	// on race day.
+	var longest, raceDay int
+	if err := st.Pool.QueryRow(ctx, `SELECT coalesce(max(duration_min), 0), count(*) FILTER (WHERE on_date = $2::date)
+		FROM training_sessions WHERE client_id = $1 AND on_date BETWEEN $2::date - 3 AND $2::date`,
+		m.ID, ev.LocalStart().Format(time.DateOnly)).Scan(&longest, &raceDay); err != nil {
+		t.Fatal(err)
+	}
+	if longest > 40 || raceDay != 0 {
+		t.Fatalf("taper: longest session %d min in the last 3 days, %d sessions on race day", longest, raceDay)
+	}
+
 	// The cyclist is a man with a multi-day stage event.
 	c, _ := st.ClientByID(ctx, res.IDs.Clients["cyclist"])
 	stage, err := st.EventByID(ctx, c.ID, res.IDs.Events["stage-race"])
