@@ -313,7 +313,7 @@ func (s *Server) createPlan(w http.ResponseWriter, r *http.Request) {
 		refuse()
 		return
 	}
-	foods, err := s.Store.ListFoods(r.Context(), false)
+	sugg, err := s.planSuggestions(r.Context(), c, plan)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
@@ -328,7 +328,7 @@ func (s *Server) createPlan(w http.ResponseWriter, r *http.Request) {
 	if p.Title == "" {
 		p.Title = defaultTitle(in, pi.event)
 	}
-	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: *in.BodyMassKg, Suggestions: suggestionTexts(plan, MenuFoods(foods), c.Cautions)}
+	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: *in.BodyMassKg, Suggestions: sugg}
 	// The measurement date is kept only when the mass is the one on record.
 	if in.BodyMassOn != nil && in.BodyMassPrefill != "" {
 		if pre, err := forms.ParseNumber(in.BodyMassPrefill); err == nil && pre == *in.BodyMassKg {
@@ -895,13 +895,13 @@ func (s *Server) editPlanVersion(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	foods, err := s.Store.ListFoods(r.Context(), false)
+	sugg, err := s.planSuggestions(r.Context(), c, plan)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
 	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: req.Athlete.BodyMassKg, BodyMassOn: v.BodyMassOn,
-		Suggestions: suggestionTexts(plan, MenuFoods(foods), c.Cautions)}
+		Suggestions: sugg}
 	if req.Athlete.BodyMassKg != v.BodyMassKg {
 		// A new figure: dated when it is the latest measurement on record.
 		content.BodyMassOn = nil
@@ -1087,13 +1087,13 @@ func (s *Server) revisePlan(w http.ResponseWriter, r *http.Request) {
 			s.renderPlan(w, r, http.StatusUnprocessableEntity, c, p, v, versions, f, msg+" Your values were not applied: correct the boxes marked below and save.")
 			return
 		}
-		foods, err := s.Store.ListFoods(r.Context(), false)
+		sugg, err := s.planSuggestions(r.Context(), c, plan)
 		if err != nil {
 			s.ServerError(w, r, err)
 			return
 		}
 		content := store.PlanContent{Request: req, Result: plan, BodyMassKg: v.BodyMassKg, BodyMassOn: v.BodyMassOn,
-			Suggestions: suggestionTexts(plan, MenuFoods(foods), c.Cautions)}
+			Suggestions: sugg}
 		if _, err := s.Store.SaveDraft(r.Context(), Actor(r), v.ID, v.Revision, content); err != nil {
 			if errors.Is(err, store.ErrStaleRevision) || errors.Is(err, store.ErrNotDraft) {
 				s.conflict(w, r, c, p, v, f, err)

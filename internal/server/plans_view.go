@@ -1,6 +1,7 @@
 package server
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"net/http"
@@ -323,9 +324,14 @@ func suggestFor(plan fuel.Plan, foods []menu.Food, cautions string) map[string]s
 	return menu.PlanSuggestions(plan, foods, menu.OptionsFor(cautions))
 }
 
-// suggestionTexts is what a save stores with the feeds.
-func suggestionTexts(plan fuel.Plan, foods []menu.Food, cautions string) map[string]string {
-	return menu.PlanSuggestions(plan, foods, menu.OptionsFor(cautions))
+// planSuggestions makes a plan's food suggestions from the current foods
+// list, as a save stores them with the feeds.
+func (s *Server) planSuggestions(ctx context.Context, c store.Client, plan fuel.Plan) (map[string]string, error) {
+	foods, err := s.Store.ListFoods(ctx, false)
+	if err != nil {
+		return nil, err
+	}
+	return suggestFor(plan, MenuFoods(foods), c.Cautions), nil
 }
 
 // ----- client page hooks -----

@@ -1,6 +1,7 @@
 package server
 
 import (
+	"context"
 	"net/http"
 
 	"larder/internal/forms"
@@ -55,21 +56,29 @@ func (s *Server) bodyMassCreate(w http.ResponseWriter, r *http.Request) {
 	Redirect(w, r, web.Path("clients", c.ID)+"#body-mass")
 }
 
-func (s *Server) bodyMassFromURL(w http.ResponseWriter, r *http.Request) (store.Client, store.BodyMass, bool) {
+// recordFromURL loads the client of the URL and one of their records by
+// its {id}, answering the request itself (404, bad id) when it cannot.
+func recordFromURL[T any](s *Server, w http.ResponseWriter, r *http.Request,
+	load func(ctx context.Context, clientID, id int64) (T, error)) (store.Client, T, bool) {
+	var none T
 	c, ok := s.ClientFromURL(w, r)
 	if !ok {
-		return c, store.BodyMass{}, false
+		return c, none, false
 	}
 	id, ok := s.ParamID(w, r, "id")
 	if !ok {
-		return c, store.BodyMass{}, false
+		return c, none, false
 	}
-	m, err := s.Store.BodyMassByID(r.Context(), c.ID, id)
+	rec, err := load(r.Context(), c.ID, id)
 	if err != nil {
 		s.StoreError(w, r, err)
-		return c, m, false
+		return c, none, false
 	}
-	return c, m, true
+	return c, rec, true
+}
+
+func (s *Server) bodyMassFromURL(w http.ResponseWriter, r *http.Request) (store.Client, store.BodyMass, bool) {
+	return recordFromURL(s, w, r, s.Store.BodyMassByID)
 }
 
 func (s *Server) bodyMassEditPage(w http.ResponseWriter, r *http.Request) {
@@ -149,20 +158,7 @@ func (s *Server) trainingCreate(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) trainingFromURL(w http.ResponseWriter, r *http.Request) (store.Client, store.TrainingSession, bool) {
-	c, ok := s.ClientFromURL(w, r)
-	if !ok {
-		return c, store.TrainingSession{}, false
-	}
-	id, ok := s.ParamID(w, r, "id")
-	if !ok {
-		return c, store.TrainingSession{}, false
-	}
-	t, err := s.Store.TrainingByID(r.Context(), c.ID, id)
-	if err != nil {
-		s.StoreError(w, r, err)
-		return c, t, false
-	}
-	return c, t, true
+	return recordFromURL(s, w, r, s.Store.TrainingByID)
 }
 
 func (s *Server) trainingEditPage(w http.ResponseWriter, r *http.Request) {
@@ -246,20 +242,7 @@ func (s *Server) eventCreate(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) eventFromURL(w http.ResponseWriter, r *http.Request) (store.Client, store.Event, bool) {
-	c, ok := s.ClientFromURL(w, r)
-	if !ok {
-		return c, store.Event{}, false
-	}
-	id, ok := s.ParamID(w, r, "id")
-	if !ok {
-		return c, store.Event{}, false
-	}
-	e, err := s.Store.EventByID(r.Context(), c.ID, id)
-	if err != nil {
-		s.StoreError(w, r, err)
-		return c, e, false
-	}
-	return c, e, true
+	return recordFromURL(s, w, r, s.Store.EventByID)
 }
 
 func (s *Server) eventEditPage(w http.ResponseWriter, r *http.Request) {
