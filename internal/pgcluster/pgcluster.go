@@ -36,6 +36,12 @@ type Options struct {
 	DataDir string       // folder for the cluster; created when missing
 	Logger  *slog.Logger // optional
 	BinDir  string       // optional; found automatically when empty
+
+	// UnsafeFastForTests turns off fsync and full_page_writes so throwaway
+	// test clusters start and migrate quickly. A cluster run this way can be
+	// corrupted by an OS crash or power cut, so only internal/testdb sets it;
+	// the private cluster that holds a practice's records never does.
+	UnsafeFastForTests bool
 }
 
 // Cluster is a running private cluster.
@@ -128,9 +134,14 @@ func Start(ctx context.Context, opt Options) (*Cluster, error) {
 	pgdata := filepath.Join(dir, "data")
 	if _, err := os.Stat(filepath.Join(pgdata, "PG_VERSION")); errors.Is(err, os.ErrNotExist) {
 		log.Info("creating private PostgreSQL cluster", "dir", pgdata)
-		if out, err := c.run(ctx, "initdb", "-D", pgdata, "-U", Superuser, "-A", "trust", "-E", "UTF8", "--locale=C.UTF-8", "--no-sync"); err != nil {
+		args := []string{"-D", pgdata, "-U", Superuser, "-A", "trust", "-E", "UTF8"}
+		if opt.UnsafeFastForTests {
+			// initdb normally syncs its files to disk before returning.
+			args = append(args, "--no-sync")
+		}
+		if out, err := c.run(ctx, "initdb", append(args, "--locale=C.UTF-8")...); err != nil {
 			// Older initdb versions lack C.UTF-8 on some systems; retry with C.
-			if out2, err2 := c.run(ctx, "initdb", "-D", pgdata, "-U", Superuser, "-A", "trust", "-E", "UTF8", "--locale=C", "--no-sync"); err2 != nil {
+			if out2, err2 := c.run(ctx, "initdb", append(args, "--locale=C")...); err2 != nil {
 				return nil, fmt.Errorf("pgcluster: initdb failed: %v\n%s\n%s", err2, out, out2)
 			}
 		}
@@ -138,11 +149,12 @@ func Start(ctx context.Context, opt Options) (*Cluster, error) {
 	if _, err := c.run(ctx, "pg_ctl", "status", "-D", pgdata); err == nil {
 		log.Info("joining private PostgreSQL cluster already running", "dir", pgdata)
 	} else {
-		opts := fmt.Sprintf("-c listen_addresses='' -c unix_socket_directories='%s' -c fsync=off -c full_page_writes=off", c.sockDir)
-		// fsync off trades crash safety of the private demo cluster for speed;
-		// production deployments set DATABASE_URL to a managed server.
-		if os.Getenv("LARDER_PG_FSYNC") == "on" {
-			opts = fmt.Sprintf("-c listen_addresses='' -c unix_socket_directories='%s'", c.sockDir)
+		// PostgreSQL's own defaults (fsync, full_page_writes, synchronous
+		// commit) are what keep committed records through a crash; only a
+		// throwaway test cluster gives them up for speed.
+		opts := fmt.Sprintf("-c listen_addresses='' -c unix_socket_directories='%s'", c.sockDir)
+		if opt.UnsafeFastForTests {
+			opts += " -c fsync=off -c full_page_writes=off -c synchronous_commit=off"
 		}
 		out, err := c.run(ctx, "pg_ctl", "start", "-D", pgdata, "-w", "-t", "60", "-l", filepath.Join(dir, "postgres.log"), "-o", opts)
 		if err != nil {
@@ -158,7 +170,35 @@ func Start(ctx context.Context, opt Options) (*Cluster, error) {
 		c.Stop()
 		return nil, err
 	}
+	if !opt.UnsafeFastForTests {
+		// A cluster we only joined may have been started by an older
+		// version with durability off; say so rather than trust it.
+		if off, err := c.NotDurable(ctx); err == nil && len(off) > 0 {
+			log.Warn("private PostgreSQL cluster runs without crash safety; stop it (pg_ctl stop) so the next start restores it", "off", strings.Join(off, ","), "dir", pgdata)
+		}
+	}
 	return c, nil
+}
+
+// NotDurable names the crash-safety settings (fsync, full_page_writes,
+// synchronous_commit) that the running cluster has turned off.
+func (c *Cluster) NotDurable(ctx context.Context) ([]string, error) {
+	conn, err := pgx.Connect(ctx, c.DSN("postgres"))
+	if err != nil {
+		return nil, err
+	}
+	defer conn.Close(ctx)
+	var off []string
+	for _, name := range []string{"fsync", "full_page_writes", "synchronous_commit"} {
+		var v string
+		if err := conn.QueryRow(ctx, "SELECT current_setting($1)", name).Scan(&v); err != nil {
+			return nil, err
+		}
+		if v == "off" {
+			off = append(off, name)
+		}
+	}
+	return off, nil
 }
 
 func (c *Cluster) prepareDirs() error {

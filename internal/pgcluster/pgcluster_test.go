@@ -52,6 +52,11 @@ func TestStartServesOnSocketAndStops(t *testing.T) {
 	if listen != "" {
 		t.Errorf("listen_addresses = %q, want no TCP listener", listen)
 	}
+	// The cluster that holds a practice's records keeps PostgreSQL's crash
+	// safety: an OS crash or power cut must not corrupt committed rows.
+	if off, err := c.NotDurable(ctx); err != nil || len(off) > 0 {
+		t.Errorf("default private cluster has crash safety off: %v (err %v)", off, err)
+	}
 	// A second Start joins the running cluster instead of failing, and does
 	// not own it.
 	c2, err := Start(ctx, Options{DataDir: dir})
@@ -89,5 +94,29 @@ func TestNoServerProgramsSaysWhatToDo(t *testing.T) {
 		if !strings.Contains(err.Error(), want) {
 			t.Errorf("message %q does not name the way out %q", err, want)
 		}
+	}
+}
+
+// The fast mode is for throwaway test clusters only, and it really is
+// different: without it the durability check above would prove nothing.
+func TestUnsafeFastForTestsTurnsDurabilityOff(t *testing.T) {
+	if _, err := FindBinDir(); err != nil {
+		if os.Getenv("LARDER_TEST_REQUIRE_DB") == "1" {
+			t.Fatal(err)
+		}
+		t.Skip(err)
+	}
+	ctx := context.Background()
+	c, err := Start(ctx, Options{DataDir: filepath.Join(shortTempDir(t), "pg"), UnsafeFastForTests: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer c.Stop()
+	off, err := c.NotDurable(ctx)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if strings.Join(off, ",") != "fsync,full_page_writes,synchronous_commit" {
+		t.Errorf("fast test cluster turned off %v, want fsync, full_page_writes and synchronous_commit", off)
 	}
 }

@@ -51,7 +51,7 @@ func Main(m *testing.M) int {
 			return 1
 		}
 		defer os.RemoveAll(dir)
-		cluster, err = pgcluster.Start(context.Background(), pgcluster.Options{DataDir: dir + "/pg"})
+		cluster, err = pgcluster.Start(context.Background(), pgcluster.Options{DataDir: dir + "/pg", UnsafeFastForTests: true})
 		if err != nil {
 			fmt.Fprintln(os.Stderr, "testdb:", err)
 			return 1
