@@ -30,7 +30,13 @@
 //     fat at 35% still leaves energy availability under 45; default eating
 //     times (the eating occasions count every feed of the day, protocol
 //     feeds included); whole-gram splitting that adds up exactly.
-//   - compute.go: the four kinds. loading: the taper (default 7 days) on
+//   - The pipeline: compute.go (Compute, setup of body and event figures),
+//     schedule.go (a day's feeds and ordinary meals placed around its
+//     sessions), overrides.go (the dietitian's feed overrides), one file
+//     per plan kind (loading.go, race.go, repletion.go, week.go, the last
+//     also holding the training-load day), simulate.go (the simulation runs
+//     a plan needs: start state, exercise and intake lists, the run to the
+//     start line and the stores' running out). The four kinds: loading: the taper (default 7 days) on
 //     training-load targets, the protocol's load days (two-day 10.5, one-day
 //     and three-day 10 g/kg, low-fibre advice), the event day with the
 //     pre-event meal (1 g/kg per hour before, 1–4 h, 3 h unless that is
