@@ -79,12 +79,12 @@ func TestMassUnits(t *testing.T) {
 
 func TestDateFormats(t *testing.T) {
 	for _, tc := range []struct {
-		name   string
-		dates  []string
-		given  string
-		want   []time.Time
-		ask    bool
-		order  string
+		name  string
+		dates []string
+		given string
+		want  []time.Time
+		ask   bool
+		order string
 	}{
 		{"ISO", []string{"2026-03-01", "2026-12-31"}, "", []time.Time{day(2026, 3, 1), day(2026, 12, 31)}, false, OrderDMY},
 		{"d/m/y told by a day over 12", []string{"01/03/2026", "31/03/2026"}, "", []time.Time{day(2026, 3, 1), day(2026, 3, 31)}, false, OrderDMY},
