@@ -64,6 +64,7 @@ type planner struct {
 	start        simState // startState, once computed
 	haveStart    bool
 	preMealNight bool // the pre-event meal could only go in the night hours
+	eventExtras       // multi-sport legs, stages, long events and sessions
 }
 
 // Compute builds the plan a request asks for. Bad input yields a
@@ -76,9 +77,17 @@ func Compute(req Request) (Plan, error) {
 	p.setup()
 	switch req.Kind {
 	case KindLoading:
-		p.loading()
+		if len(p.stages) > 0 {
+			p.stageRace(true)
+		} else {
+			p.loading()
+		}
 	case KindRace:
-		p.race()
+		if len(p.stages) > 0 {
+			p.stageRace(false)
+		} else {
+			p.race()
+		}
 	case KindRepletion:
 		p.repletion()
 	case KindWeek:
@@ -110,6 +119,12 @@ func (p *planner) setup() {
 		p.modality = req.Training[0].Modality
 	}
 	p.body = NewBody(req.Athlete, p.modality)
+	if req.Event != nil && len(req.Event.Segments) > 0 {
+		// Legs are the working muscle of the bike and the run; the swim
+		// swaps in the arms and trunk (see segments.go).
+		p.body = NewBody(req.Athlete, "run")
+		p.body.WorkingMethod = "leg muscle (the swim draws on the arms and trunk)"
+	}
 	p.sb = newSimBody(p.body)
 	p.sessions = make([]sessionInfo, 0, len(req.Training))
 	for _, t := range req.Training {
@@ -131,7 +146,7 @@ func (p *planner) setup() {
 		if mod == "" {
 			mod = p.modality
 		}
-		s := sessionInfo{date: t.Date, start: clockOn(d, startMin), durMin: t.DurationMin, modality: mod, pct: intensityPct(in)}
+		s := sessionInfo{date: t.Date, start: clockOn(d, startMin), durMin: t.DurationMin, modality: mod, pct: intensityPct(in), trainLow: t.TrainLow}
 		// keep sorted by start
 		i := len(p.sessions)
 		p.sessions = append(p.sessions, s)
@@ -171,7 +186,12 @@ func zoneName(loc *time.Location, req Request) string {
 
 // eventFigures computes the event's energy, carbohydrate share and use.
 func (p *planner) eventFigures() {
-	e := p.req.Event
+	p.eventFiguresOf(p.req.Event)
+	p.setupStages()
+}
+
+// eventFiguresOf computes the figures of one event (or stage).
+func (p *planner) eventFiguresOf(e *Event) {
 	p.ev = e
 	p.evStart = e.StartsAt.In(p.loc)
 	p.evDurH = e.ExpectedDurationMin / 60
@@ -181,10 +201,17 @@ func (p *planner) eventFigures() {
 	if e.IntensityPctVO2max != nil {
 		p.evPct = *e.IntensityPctVO2max
 	}
+	p.pctFromPace = false
+	if e.IntensityPctVO2max == nil && len(e.Segments) == 0 {
+		p.paceIntensity(*e)
+	}
 	p.evKcal, p.evMethod = EventEnergy(p.body, *e, p.evPct)
 	p.evShare = ChoShare(p.evPct)
 	p.evUseGPH = p.evKcal / p.evDurH * p.evShare / gAtwaterCho.Min
 	p.evCover = coverShare(p.evPct)
+	if len(e.Segments) > 0 {
+		p.segmentFigures(p.evPct)
+	}
 }
 
 func (p *planner) sessionsOn(date string) []sessionInfo {

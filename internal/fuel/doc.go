@@ -75,6 +75,16 @@
 //     the band, the source, and the subject it concerns (a day, a feed,
 //     the pre-event meal, the in-event plan, repletion, glycogen, the
 //     plan). Recorded client cautions each yield a caution finding.
+//   - Events as they are raced: segments.go (multi-sport legs, each with its
+//     own energy model — swimming by Kimber 2002's oxygen-uptake equation —,
+//     fed only on the bike and the run, the swim drawing on the arms and
+//     trunk), stages.go (a stage race as one plan and one simulation; pace
+//     to %VO2max when VO2max is known), ultra.go (events over 24 h: blocks
+//     of hours through the night, no ordinary meal inside the race),
+//     sessions_long.go (sessions of 90 min or more in week and loading
+//     plans, and the train-low mark), findings_events.go (caffeine per the
+//     IOC 2018 statement and Pedersen 2008, diabetes cautions that never
+//     compute insulin, the pre-event meal's protein, the fitness finding).
 //
 // Limits: the glycogen model is a teaching-grade model calibrated to the
 // published ranges (typical and loaded densities, the 5–8 mmol/kg/h

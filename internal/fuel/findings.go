@@ -150,6 +150,7 @@ func (p *planner) finish() {
 			"Expect body mass to rise by about %g kg over the load: glycogen gained plus about %g g of water stored with each gram.",
 			*p.plan.ExpectedMassGainKg, gWater.Min)
 	}
+	p.finishEvents()
 	for _, c := range p.req.Cautions {
 		// The sentence adds its own full stop.
 		c = strings.TrimRight(strings.TrimSpace(c), ".;, ")
@@ -205,6 +206,10 @@ func bandWords(b string) string {
 }
 
 func (p *planner) checkDay(d *Day) {
+	if d.Role == RoleInRace || p.feedOnly[d.Date] {
+		p.checkInRaceDay(d)
+		return
+	}
 	mass := p.body.MassKg
 	subj := "day:" + d.Date
 	code, src, what, band := rangeCode(d.Role), SrcBands, "the %s training-load band", bandWords(d.LoadBand)
@@ -324,7 +329,7 @@ func (p *planner) checkDay(d *Day) {
 			}
 		}
 		if f.Label == labelDuring {
-			prevAt = p.evEnd // fed through the event
+			prevAt = p.duringEnd(f) // fed through the event
 			continue
 		}
 		if !prevAt.IsZero() {
@@ -360,7 +365,9 @@ func (p *planner) checkDuring(de *DuringEvent) {
 		p.find("during-event-band", LevelOutside, "during_event", src,
 			"In-event carbohydrate of %g g/h%s is outside %g–%g g/h for a %g-min event.", de.ChoGPerH, ov, lo, hi, de.DurationMin)
 	}
-	if de.ChoGPerH > gDuring3060.Max && de.ChoGPerH <= gDuringUpTo90.Max && !de.Overridden {
+	// An override above 60 g/h keeps the note: the gut's limit holds
+	// whoever sets the rate.
+	if de.ChoGPerH > gDuring3060.Max {
 		p.find("multiple-transportable", LevelNote, "during_event", SrcACSMJeuk,
 			"Over %g g/h needs multiple transportable carbohydrates (glucose with fructose), practised in training.", gDuring3060.Max)
 	}

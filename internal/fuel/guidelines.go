@@ -41,9 +41,9 @@ const (
 	SrcModel = "model assumption"
 )
 
-// Guidelines is THE one table of values the engine uses, each with its source.
+// coreGuidelines is the main part of Guidelines, the one table of values the engine uses, each with its source.
 // Code reads it through the named variables below, so a value lives here only.
-var Guidelines = []Guideline{
+var coreGuidelines = []Guideline{
 	// Daily carbohydrate by training load.
 	{"band.light", "light: low-intensity or skill-based activity", 3, 5, "g/kg/day", SrcBands},
 	{"band.moderate", "moderate: moderate exercise about 1 h a day", 5, 7, "g/kg/day", SrcBands},

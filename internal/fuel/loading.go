@@ -60,6 +60,7 @@ func (p *planner) loading() {
 			"The event is expected to last %.0f min, over %.0f min, so carbohydrate loading suits it.",
 			p.ev.ExpectedDurationMin, gLoadingEvent.Min)
 	}
+	dps = p.ultraExpand(dps)
 	rehome(dps)
 	p.plan.Days = make([]Day, len(dps))
 	for i := range dps {

@@ -5,6 +5,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -130,8 +131,11 @@ func checkPlanInvariants(t *testing.T, req Request, p Plan) {
 
 func validSubject(s string) bool {
 	switch {
-	case s == "plan", s == "pre_event_meal", s == "during_event", s == "repletion", s == "glycogen":
+	case s == "plan", s == "pre_event_meal", s == "during_event", s == "repletion", s == "glycogen", s == "pre_event_caffeine":
 		return true
+	case strings.HasPrefix(s, "stage:"), strings.HasPrefix(s, "during_event:segment:"):
+		_, err := strconv.Atoi(s[strings.LastIndexByte(s, ':')+1:])
+		return err == nil
 	case strings.HasPrefix(s, "day:"):
 		_, err := time.Parse("2006-01-02", s[4:])
 		return err == nil

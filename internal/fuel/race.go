@@ -177,6 +177,7 @@ func (p *planner) duringEventPlan(rate float64) *DuringEvent {
 	}
 	de.ChoGPerH = rate
 	de.TotalChoG = math.Round(rate * p.evDurH)
+	p.fillSegments(de)
 	return de
 }
 
@@ -242,6 +243,7 @@ func (p *planner) race() {
 			break
 		}
 	}
+	dps = p.ultraExpand(dps)
 	rehome(dps)
 	p.plan.Days = make([]Day, len(dps))
 	for i := range dps {

@@ -58,9 +58,7 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	for _, s := range sess {
 		exKcal += sessionKcalPerH(p.body, s.modality, s.pct) * s.durMin / 60
 	}
-	if d.Role == RoleEvent && p.ev != nil {
-		exKcal += p.evKcal
-	}
+	exKcal += p.eventKcalOn(&d)
 	exKcal = math.Round(exKcal)
 	d.ExerciseEnergyKcal = &exKcal
 	macros(&d, mass, p.body.FFMKg, exKcal, dp.loadDay)
@@ -96,21 +94,37 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 		feeds = append(feeds, Feed{At: slots[i].at, Label: slots[i].label})
 	}
 	restCho := d.ChoG - fixedCho
+	if want := p.mealsAfterEventMin(dp, slots[:nw]); restCho < want {
+		// The event's feeds used up the day's band: the meals after the
+		// finish still get food, and the day grows to carry them.
+		d.ChoGPerKg = ceil1((fixedCho + want) / mass)
+		d.ChoG = math.Round(d.ChoGPerKg * mass)
+		macros(&d, mass, p.body.FFMKg, exKcal, dp.loadDay)
+		restCho = d.ChoG - fixedCho
+	}
 	restProt := math.Max(0, d.ProteinG-fixedProt)
 	if nw == 0 && (restCho > 0 || restProt > 0) {
-		// Nowhere to put the rest: add it to the last fixed feed that is not
-		// in-event fuelling, or make a meal of it.
+		// Nowhere to put the rest: add it to the last feed after exercise
+		// (a recovery or refuelling feed), never to the pre-event meal
+		// (its protein, fat and fibre stay low) nor to in-event fuelling.
+		// A day inside a race has only its in-event feeds: the day is
+		// what they carry. Otherwise make a meal of it.
 		placed := false
 		for i := len(feeds) - 1; i >= 0; i-- {
-			if feeds[i].Label != labelDuring {
+			if l := feeds[i].Label; l == labelRecovery || l == labelRefuel {
 				feeds[i].ChoG += math.Max(0, restCho)
 				feeds[i].ProteinG += restProt
 				placed = true
 				break
 			}
 		}
+		if !placed && p.inRaceOnly(feeds) {
+			p.dayIsItsFeeds(&d, feeds)
+			placed = true
+		}
 		if !placed {
-			feeds = append(feeds, Feed{At: clockOn(dp.date, 12*60+30), Label: "lunch", ChoG: math.Max(0, restCho), ProteinG: restProt})
+			at, label := p.restMealAt(dp)
+			feeds = append(feeds, Feed{At: at, Label: label, ChoG: math.Max(0, restCho), ProteinG: restProt})
 		}
 	} else if nw > 0 {
 		var out [16]float64

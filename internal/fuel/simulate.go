@@ -44,7 +44,7 @@ func (p *planner) exercises(from, to int64) []exercise {
 			continue
 		}
 		use := sessionKcalPerH(p.body, s.modality, s.pct) * ChoShare(s.pct) / gAtwaterCho.Min
-		out = append(out, exercise{start: st, end: en, choUseGPerH: use, cover: coverShare(s.pct)})
+		out = append(out, exercise{start: st, end: en, choUseGPerH: use, cover: coverShare(s.pct), intakeGPerH: p.sessionRate(s)})
 	}
 	return out
 }
@@ -59,7 +59,7 @@ func (p *planner) intakes(days []Day, to int64) []intake {
 	out := make([]intake, 0, n)
 	for _, d := range days {
 		for _, f := range d.Feeds {
-			if f.Label == labelDuring || f.At.Unix() >= to {
+			if f.Label == labelDuring || f.Label == labelDuringSession || f.At.Unix() >= to {
 				continue
 			}
 			out = append(out, intake{at: f.At.Unix(), g: f.ChoG})
@@ -132,7 +132,7 @@ func (p *planner) eventSimulation(first, loadStart, evDay time.Time, loading boo
 	s0 := p.startState()
 	var sLoad simState
 	if loading {
-		sLoad = p.sb.simulate(s0, from, loadStart.Unix(), ex, in, &curve, 3600, p.loc)
+		sLoad = p.simulateSessions(s0, from, loadStart.Unix(), ex, in, &curve)
 		s0 = p.sb.simulate(sLoad, loadStart.Unix(), dayStart, ex, in, &curve, 3600, p.loc)
 	} else {
 		s0 = p.sb.simulate(s0, from, dayStart, ex, in, &curve, 3600, p.loc)
@@ -145,8 +145,8 @@ func (p *planner) eventSimulation(first, loadStart, evDay time.Time, loading boo
 	if !p.plan.DuringEvent.Overridden {
 		if rate := p.neededRate(sStart); rate != p.plan.DuringEvent.ChoGPerH {
 			for i := range p.plan.Days {
-				if p.plan.Days[i].Role == RoleEvent {
-					dp := p.eventDay(evDay, rate)
+				if r := p.plan.Days[i].Role; r == RoleEvent || r == RoleInRace {
+					dp := p.eventDayAt(p.plan.Days[i].Date, evDay, rate)
 					dp.fixed = dp.fixed[:keepOwn(&dp)] // feeds on other days stay there
 					p.plan.Days[i] = p.buildDay(&dp)
 				}
@@ -169,12 +169,13 @@ func (p *planner) eventSimulation(first, loadStart, evDay time.Time, loading boo
 		MuscleGCapacity:     math.Round(GlycogenG(gModelCapacity.Min, p.body.SkeletalKg)),
 		Curve:               curve,
 	}
-	outH, _ := p.sb.race(sStart, p.evDurH, p.evUseGPH, p.evCover, 0)
+	outH, _ := p.raceOut(sStart, 0)
 	g.RunsOutAtMin, g.RunsOutAtKm = p.runsOut(outH)
-	outH2, _ := p.sb.race(sStart, p.evDurH, p.evUseGPH, p.evCover, de.ChoGPerH)
+	outH2, _ := p.raceOut(sStart, de.ChoGPerH)
 	g.RunsOutWithIntakeAtMin, g.RunsOutWithIntakeAtKm = p.runsOut(outH2)
 	p.plan.Glycogen = g
 	p.startDensity = sStart.Dw
+	p.segmentRunsOut(sStart)
 
 	if loading {
 		// The usual intake instead of the load, for comparison.
@@ -203,7 +204,7 @@ func (p *planner) neededRate(s simState) float64 {
 		lo = 0
 	}
 	lasts := func(rate float64) bool {
-		out, _ := p.sb.race(s, p.evDurH, p.evUseGPH, p.evCover, rate)
+		out, _ := p.raceOut(s, rate)
 		return out < 0
 	}
 	if lasts(0) {
@@ -232,7 +233,8 @@ func (p *planner) runsOut(h float64) (min, km *float64) {
 	}
 	m := math.Round(h * 60)
 	min = &m
-	if p.ev.DistanceKm != nil && p.evDurH > 0 {
+	// A multi-sport event gives the distance per leg instead.
+	if p.ev.DistanceKm != nil && p.evDurH > 0 && len(p.segs) == 0 {
 		k := round1(h / p.evDurH * *p.ev.DistanceKm)
 		km = &k
 	}

@@ -107,6 +107,7 @@ type sessionInfo struct {
 	durMin   float64
 	modality string
 	pct      float64
+	trainLow bool // kept deliberately unfuelled
 }
 
 // macros fills protein, fat and energy for a day's carbohydrate. Protein is

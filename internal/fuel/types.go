@@ -40,6 +40,14 @@ type Request struct {
 	// Cautions are the client's recorded cautions as free text ("type 1
 	// diabetes", "coeliac disease"); each yields a caution finding.
 	Cautions []string `json:"cautions,omitempty" validate:"max=20,dive,max=200"`
+	// CaffeineMgPerKg asks for caffeine before the start of a race, loading
+	// or stage-race plan (off when absent).
+	CaffeineMgPerKg *float64 `json:"caffeine_mg_per_kg,omitempty" validate:"omitempty,gt=0,lte=15"`
+	// RepletionCaffeineMgPerKg adds caffeine to speedy refuelling (off when
+	// absent): an option the dietitian chooses, never a default.
+	RepletionCaffeineMgPerKg *float64 `json:"repletion_caffeine_mg_per_kg,omitempty" validate:"omitempty,gt=0,lte=15"`
+	// StageOverrides set the in-stage g/h of single stages.
+	StageOverrides []StageOverride `json:"stage_overrides,omitempty" validate:"max=21,dive"`
 }
 
 // Athlete holds the body figures the equations need.
@@ -61,6 +69,11 @@ type Event struct {
 	// AveragePowerW is the expected mean power (cycling): the event's energy
 	// then comes from mechanical work and efficiency.
 	AveragePowerW *float64 `json:"average_power_w,omitempty" validate:"omitempty,gt=0,lte=2000"`
+	// Segments are the legs of a multi-sport event in race order (swim,
+	// cycle, run and the transitions); Stages are the days of a stage race.
+	// An event has one or the other, or neither.
+	Segments []Segment `json:"segments,omitempty" validate:"omitempty,max=12,dive"`
+	Stages   []Stage   `json:"stages,omitempty" validate:"omitempty,max=21,dive"`
 }
 
 // TrainingSession is one logged or planned session. Intensity is one of
@@ -71,6 +84,8 @@ type TrainingSession struct {
 	DurationMin float64 `json:"duration_min" validate:"gte=0,lte=1440"`
 	Modality    string  `json:"modality,omitempty" validate:"omitempty,oneof=run cycle swim row ski triathlon team strength other"`
 	Intensity   string  `json:"intensity,omitempty"`
+	// TrainLow marks a session the dietitian keeps deliberately unfuelled.
+	TrainLow bool `json:"train_low,omitempty"`
 }
 
 // DayOverride is a dietitian's change to one day's targets.
@@ -102,6 +117,8 @@ type Plan struct {
 
 	Days               []Day         `json:"days"`
 	PreEventMeal       *PreEventMeal `json:"pre_event_meal"`
+	PreEventCaffeine   *Caffeine     `json:"pre_event_caffeine"`
+	Stages             []StagePlan   `json:"stages,omitempty"`
 	DuringEvent        *DuringEvent  `json:"during_event"`
 	Repletion          *Repletion    `json:"repletion"`
 	Glycogen           *Glycogen     `json:"glycogen"`
@@ -149,6 +166,9 @@ type Day struct {
 	Advice             []string `json:"advice"`
 	Feeds              []Feed   `json:"feeds"`
 	Overridden         bool     `json:"overridden"`
+	// Sessions are the day's long sessions (90 min or more) with their
+	// fuelling, or their train-low mark.
+	Sessions []SessionFuel `json:"sessions,omitempty"`
 }
 
 // Feed is one eating occasion.
@@ -182,6 +202,11 @@ type DuringEvent struct {
 	EnergyKcal  float64 `json:"energy_kcal"`
 	ChoShare    float64 `json:"cho_share"`  // share of energy from carbohydrate, 0–1
 	ChoUsedG    float64 `json:"cho_used_g"` // carbohydrate oxidised over the event
+	// Segments is the plan per leg of a multi-sport event.
+	Segments []SegmentPlan `json:"segments,omitempty"`
+	// Blocks splits an event of over a day into blocks of hours, nights
+	// marked, each with its grams.
+	Blocks []HourBlock `json:"blocks,omitempty"`
 }
 
 // Repletion is the plan from the end of one session to the next start.
@@ -196,9 +221,11 @@ type Repletion struct {
 	WorkingMuscleGAtNextStart float64 `json:"working_muscle_g_at_next_start"`
 	// SessionSimulated tells whether the session that ended was found in
 	// the training log and simulated (otherwise its end state is assumed).
-	SessionSimulated bool            `json:"session_simulated"`
-	MuscleGCapacity  float64         `json:"muscle_g_capacity"`
-	Curve            []GlycogenPoint `json:"curve"`
+	SessionSimulated bool `json:"session_simulated"`
+	// Caffeine is the dietitian's optional caffeine with the refuelling.
+	Caffeine        *Caffeine       `json:"caffeine,omitempty"`
+	MuscleGCapacity float64         `json:"muscle_g_capacity"`
+	Curve           []GlycogenPoint `json:"curve"`
 }
 
 // MarshalJSON writes cho_g_per_kg_per_h as null when the speedy protocol

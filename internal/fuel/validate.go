@@ -191,6 +191,7 @@ func (r Request) Validate() error {
 		}
 	}
 	out = append(out, r.handChecks()...)
+	out = append(out, r.eventChecks()...)
 	if len(out) == 0 {
 		return nil
 	}
@@ -211,6 +212,7 @@ var units = map[string]string{
 	"distance_km": "km", "expected_duration_min": "min", "intensity_pct_vo2max": "% of VO2max",
 	"duration_min": "min", "cho_g_per_kg": "g/kg", "cho_g": "g", "during_event_cho_g_per_h": "g/h",
 	"taper_days": "days", "days": "days", "average_power_w": "W",
+	"caffeine_mg_per_kg": "mg/kg", "repletion_caffeine_mg_per_kg": "mg/kg", "cho_g_per_h": "g/h",
 }
 
 func plainMessage(fe validator.FieldError) string {

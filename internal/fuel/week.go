@@ -31,7 +31,7 @@ func (p *planner) week() {
 	curve := make([]GlycogenPoint, 0, (to-from)/3600+2)
 	ex := p.exercises(from, to)
 	in := p.intakes(p.plan.Days, to)
-	s := p.sb.simulate(p.startState(), from, to, ex, in, &curve, 3600, p.loc)
+	s := p.simulateSessions(p.startState(), from, to, ex, in, &curve)
 	curve = append(curve, p.sb.point(s, to, p.loc))
 	p.plan.Glycogen = &Glycogen{
 		MuscleGStart:        math.Round(p.sb.muscleG(s)),
@@ -63,6 +63,7 @@ func (p *planner) trainingDay(date time.Time, role string) dayPlan {
 			dp.blocked = append(dp.blocked, window{end, end.Add(2 * time.Hour)})
 		}
 	}
+	p.sessionFuel(&dp)
 	return dp
 }
 
