@@ -76,7 +76,10 @@ type FeedView struct {
 	ChoG, ProteinG    string
 	Overridden        bool
 	Suggestion        string
-	Findings          []FindingView
+	// Key names the feed's stored food plan (menu.FeedKey), so that a
+	// test can read one feed's row on every surface.
+	Key      string
+	Findings []FindingView
 }
 
 // DayView is one row of the day-by-day table with its feeds.

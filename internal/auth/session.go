@@ -22,8 +22,14 @@ type SessionOptions struct {
 // Session keys.
 const (
 	KeyUserID = "user_id"
-	KeyFlash  = "flash"
+	// KeySessionID names the staff_sessions row of this sign-in; the
+	// session signs nobody in once that row is gone.
+	KeySessionID = "session_id"
+	KeyFlash     = "flash"
 )
+
+// SessionLifetime is the longest a staff session lasts, however busy.
+const SessionLifetime = 12 * time.Hour
 
 // NewSessionManager returns a session manager storing sessions in the
 // sessions table of pool. Sessions last at most 12 hours and end after 2
@@ -38,7 +44,7 @@ func NewSessionManager(pool *pgxpool.Pool, opt SessionOptions) *scs.SessionManag
 	default:
 		m.Store = pgxstore.NewWithCleanupInterval(pool, opt.CleanupInterval)
 	}
-	m.Lifetime = 12 * time.Hour
+	m.Lifetime = SessionLifetime
 	m.IdleTimeout = 2 * time.Hour
 	m.Cookie.Name = "larder_session"
 	m.Cookie.HttpOnly = true

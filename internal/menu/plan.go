@@ -8,6 +8,17 @@ import (
 	"larder/internal/fuel"
 )
 
+// FeedDate is the date of a feed's time in the plan's zone: the date part
+// of the pre-event and repletion feeds' keys, the same wherever a key is
+// made (store, plan page, sheet).
+func FeedDate(plan fuel.Plan, at time.Time) string {
+	loc, err := time.LoadLocation(plan.TimeZone)
+	if err != nil || plan.TimeZone == "" {
+		loc = time.UTC
+	}
+	return at.In(loc).Format(time.DateOnly)
+}
+
 // FeedKey names one feed of a plan: kind is "day", "pre_event" or
 // "repletion"; index is 0-based within the day (or the repletion window).
 func FeedKey(kind, date string, index int) string { return fmt.Sprintf("%s:%s:%d", kind, date, index) }
@@ -81,10 +92,7 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 		o = opts[0]
 	}
 	out := map[string]string{}
-	loc, err := time.LoadLocation(plan.TimeZone)
-	if err != nil || plan.TimeZone == "" {
-		loc = time.UTC
-	}
+	byTime := map[int64]string{} // a day feed's text by its time
 	for _, d := range plan.Days {
 		needs := make([]Need, len(d.Feeds))
 		for i, f := range d.Feeds {
@@ -103,20 +111,32 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 		}
 		sugg, ok := SuggestDay(foods, needs)
 		for i := range needs {
+			key := FeedKey("day", d.Date, i)
 			switch {
 			case ok[i]:
-				out[FeedKey("day", d.Date, i)] = sugg[i].Text()
+				out[key] = sugg[i].Text()
 			case needs[i].ChoG > 0:
-				out[FeedKey("day", d.Date, i)] = NoFit
+				out[key] = NoFit
+			}
+			if text, done := out[key]; done {
+				byTime[d.Feeds[i].At.UnixNano()] = text
 			}
 		}
 	}
+	// The pre-event meal and the repletion feeds are, on most plans, also
+	// feeds of a day's table (at the same time): such a feed has one food
+	// plan, the day feed's, so that the plan page's cards, its tables, the
+	// sheet, the calendar and the phone page all say the same thing. Only a
+	// feed that no day lists gets a suggestion of its own.
 	if m := plan.PreEventMeal; m != nil {
-		// A meal 1–4 h before the start is mostly eaten, not drunk: drinks
-		// in it are kept to about 0.5 L so the stomach has emptied by the
-		// start (this project's own margin).
-		if sg, ok := Suggest(foods, o.apply(Need{ChoG: m.ChoG, LowFibre: true, DrinksG: preEventDrinksG})); ok {
-			out[FeedKey("pre_event", m.At.In(loc).Format(time.DateOnly), 0)] = sg.Text()
+		key := FeedKey("pre_event", FeedDate(plan, m.At), 0)
+		if text, ok := byTime[m.At.UnixNano()]; ok {
+			out[key] = text
+		} else if sg, ok := Suggest(foods, o.apply(Need{ChoG: m.ChoG, LowFibre: true, DrinksG: preEventDrinksG})); ok {
+			// A meal 1–4 h before the start is mostly eaten, not drunk:
+			// drinks in it are kept to about 0.5 L so the stomach has
+			// emptied by the start (this project's own margin).
+			out[key] = sg.Text()
 		}
 	}
 	if rp := plan.Repletion; rp != nil {
@@ -126,8 +146,11 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 		}
 		sugg, ok := SuggestDay(foods, needs)
 		for i, f := range rp.Feeds {
-			key := FeedKey("repletion", f.At.In(loc).Format(time.DateOnly), i)
+			key := FeedKey("repletion", FeedDate(plan, f.At), i)
+			text, shared := byTime[f.At.UnixNano()]
 			switch {
+			case shared:
+				out[key] = text
 			case ok[i]:
 				out[key] = sugg[i].Text()
 			case needs[i].ChoG > 0:

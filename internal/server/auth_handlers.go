@@ -99,12 +99,10 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 		s.Render(w, r, http.StatusForbidden, "Sign in", "", web.SignIn(f, ""))
 		return
 	}
-	// A new token on sign-in: a session id planted before sign-in is useless after.
-	if err := s.Sessions.RenewToken(r.Context()); err != nil {
+	if err := s.startSession(r, u); err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
-	s.Sessions.Put(r.Context(), auth.KeyUserID, u.ID)
 	if err := s.Store.ClearSignInFailures(r.Context(), in.Email); err != nil {
 		s.Log.Warn("clear sign-in failures", "err", err)
 	}
@@ -116,8 +114,8 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 
 func (s *Server) signOut(w http.ResponseWriter, r *http.Request) {
 	if u := CurrentUser(r); u != nil {
-		if err := s.Store.Audit(r.Context(), store.Actor(u.ID), "sign_out", "user", u.ID, nil); err != nil {
-			s.Log.Warn("audit sign-out", "err", err)
+		if err := s.Store.SignOut(r.Context(), u.ID, s.currentSessionID(r)); err != nil {
+			s.Log.Warn("sign-out", "err", err)
 		}
 	}
 	// Destroy deletes the session row, so the old cookie is worthless even if copied.
@@ -180,11 +178,10 @@ func (s *Server) setup(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	if err := s.Sessions.RenewToken(r.Context()); err != nil {
+	if err := s.startSession(r, u); err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
-	s.Sessions.Put(r.Context(), auth.KeyUserID, u.ID)
 	s.Flash(r, "Welcome. Your practice is set up; add your first client.")
 	Redirect(w, r, "/clients")
 }
@@ -193,10 +190,6 @@ type passwordForm struct {
 	Current string `form:"current" label:"Current password" validate:"required,max=200"`
 	New     string `form:"new" label:"New password" validate:"required,min=10,max=200"`
 	Confirm string `form:"confirm" label:"New password again" validate:"required,eqfield=New" msg:"The two new passwords do not match."`
-}
-
-func (s *Server) accountPage(w http.ResponseWriter, r *http.Request) {
-	s.Render(w, r, http.StatusOK, "My account", "account", web.Account(*CurrentUser(r), forms.New()))
 }
 
 func (s *Server) changePassword(w http.ResponseWriter, r *http.Request) {
@@ -213,7 +206,7 @@ func (s *Server) changePassword(w http.ResponseWriter, r *http.Request) {
 		}
 	}
 	if f.Has() {
-		s.Render(w, r, http.StatusUnprocessableEntity, "My account", "account", web.Account(*u, f))
+		s.renderAccount(w, r, http.StatusUnprocessableEntity, f)
 		return
 	}
 	hash, err := auth.HashPassword(in.New)
@@ -221,15 +214,16 @@ func (s *Server) changePassword(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	if err := s.Store.SetUserPassword(r.Context(), Actor(r), u.ID, hash); err != nil {
+	// Every other session of this user ends with the change (whoever knew
+	// the old password is signed out); this one gets a fresh token.
+	if err := s.Store.SetUserPassword(r.Context(), Actor(r), u.ID, hash, s.currentSessionID(r)); err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
-	// Other devices keep their sessions until they expire; this one gets a fresh token.
 	if err := s.Sessions.RenewToken(r.Context()); err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
-	s.Flash(r, "Your password is changed.")
+	s.Flash(r, "Your password is changed. Any other device signed in as you is signed out.")
 	Redirect(w, r, "/account")
 }

@@ -233,8 +233,8 @@ func (s *Server) todayView(r *http.Request, p linkPlan, d fuel.Day) *web.ClientT
 	}
 	for i, f := range d.Feeds {
 		fv := web.ClientFeed{Time: f.At.In(p.loc).Format("15:04"), Label: clientFeedLabel(f.Label), ChoG: web.Num(f.ChoG, 0),
-			Suggestion: p.Suggestions[menu.FeedKey("day", d.Date, i)],
-			Event:      f.Label == "pre-event meal" || f.Label == "during event"}
+			Suggestion: p.Suggestions[menu.FeedKey("day", d.Date, i)], Key: menu.FeedKey("day", d.Date, i),
+			Event: f.Label == "pre-event meal" || f.Label == "during event"}
 		if fv.Suggestion == menu.NoFit {
 			fv.Suggestion = ""
 		}

@@ -74,8 +74,9 @@ func (s *Server) recoverPanics(next http.Handler) http.Handler {
 }
 
 // loadUser puts the signed-in user (if any) into the request context. The
-// user is read from the database on every request, so a disabled account or
-// a changed role takes effect at once.
+// user and the session's row are read from the database on every request,
+// so a disabled account, a changed role or an ended session takes effect at
+// once.
 func (s *Server) loadUser(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		id := s.Sessions.GetInt64(r.Context(), auth.KeyUserID)
@@ -83,7 +84,9 @@ func (s *Server) loadUser(next http.Handler) http.Handler {
 			next.ServeHTTP(w, r)
 			return
 		}
-		u, err := s.Store.UserByID(r.Context(), id)
+		// The session's own row must still exist: a password change, a reset
+		// or "End" on the account page removes it, and with it this sign-in.
+		u, err := s.Store.SessionUser(r.Context(), id, s.Sessions.GetInt64(r.Context(), auth.KeySessionID))
 		switch {
 		case errors.Is(err, store.ErrNotFound) || (err == nil && u.Disabled):
 			_ = s.Sessions.Destroy(r.Context())

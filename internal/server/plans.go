@@ -644,19 +644,12 @@ func (s *Server) showPlanVersion(w http.ResponseWriter, r *http.Request) {
 
 func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, c store.Client, p store.Plan, v store.PlanVersion,
 	versions []store.PlanVersion, f forms.Form, notice string) {
-	foods, err := s.Store.ListFoods(r.Context(), false)
+	stored, err := s.Store.FeedSuggestions(r.Context(), v.ID)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
-	var stored map[string]string
-	if v.Status != store.PlanDraft {
-		if stored, err = s.Store.FeedSuggestions(r.Context(), v.ID); err != nil {
-			s.ServerError(w, r, err)
-			return
-		}
-	}
-	pv := s.planView(c, p, v, versions, MenuFoods(foods), stored)
+	pv := s.planView(c, p, v, versions, stored)
 	pv.Form = f
 	pv.Notice = notice
 	if !pv.Editable && notice != "" {
@@ -1064,7 +1057,14 @@ func (s *Server) revisePlan(w http.ResponseWriter, r *http.Request) {
 		s.StoreError(w, r, err)
 		return
 	}
-	v, err := s.Store.NewVersion(r.Context(), Actor(r), p.ID, pub.ID)
+	// The new draft's food suggestions are made afresh from today's foods
+	// list (a food archived since is no longer offered), once, here.
+	fresh, err := s.planSuggestions(r.Context(), c, pub.Result)
+	if err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	v, err := s.Store.NewVersionWith(r.Context(), Actor(r), p.ID, pub.ID, fresh)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return

@@ -637,7 +637,7 @@ func FuzzPlanStart(f *testing.F) {
 
 // A published version shows the food suggestions stored with it — what the
 // client link and the plan sheet show — even after the foods list changes;
-// a draft's are made afresh from the current list.
+// a new draft's are made afresh from the current list when it is started.
 func TestPublishedPlanShowsStoredSuggestions(t *testing.T) {
 	a := newApp(t)
 	b, _ := a.signedIn(store.RoleDietitian)

@@ -19,13 +19,13 @@ import (
 
 // planView turns a stored version into what the plan page prints: numbers
 // formatted, findings placed beside the value each concerns, charts drawn,
-// food suggestions made. No figure is computed here; they all come from the
+// food suggestions placed. No figure is computed here; they all come from the
 // engine's plan.
 //
-// A draft's suggestions are made afresh from the current foods list; a
-// published or superseded version shows the suggestions stored with it
-// (stored), which are what the client link and the plan sheet show too.
-func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, versions []store.PlanVersion, foods []menu.Food, stored map[string]string) web.PlanView {
+// Every version, draft or not, shows the food suggestions stored with its
+// feeds (stored): they are made when the version is created or saved, and
+// are what the client link, the calendar and the plan sheet show too.
+func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, versions []store.PlanVersion, stored map[string]string) web.PlanView {
 	plan := v.Result
 	loc := loadZone(plan.TimeZone)
 	pv := web.PlanView{
@@ -108,9 +108,6 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		overriddenFeeds[fmt.Sprintf("%s_%d", o.Date, o.Index)] = true
 	}
 	suggestions := stored
-	if v.Status == store.PlanDraft || suggestions == nil {
-		suggestions = suggestFor(plan, foods, c.Cautions)
-	}
 	pv.SuggestionNote = menu.OptionsFor(c.Cautions).Note()
 	var bars []chart.DayTarget
 	for _, d := range plan.Days {
@@ -141,8 +138,8 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 				Time: fd.At.In(loc).Format("15:04"), Label: fd.Label,
 				ChoG: web.Num(fd.ChoG, 0), ProteinG: web.Num(fd.ProteinG, 0),
 				Overridden: fd.Overridden || overriddenFeeds[fmt.Sprintf("%s_%d", d.Date, i)],
-				Suggestion: suggestions[store.FeedKey("day", d.Date, i)],
-				Findings:   take(fmt.Sprintf("feed:%s:%d", d.Date, i)),
+				Suggestion: suggestions[store.FeedKey("day", d.Date, i)], Key: store.FeedKey("day", d.Date, i),
+				Findings: take(fmt.Sprintf("feed:%s:%d", d.Date, i)),
 			}
 			dv.Feeds = append(dv.Feeds, fv)
 		}
@@ -162,7 +159,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 			Value: fmt.Sprintf("%s g carbohydrate (%s g/kg) at %s, %s h before the start",
 				web.Num(m.ChoG, 0), web.Num(m.ChoGPerKg, 1), m.At.In(loc).Format("15:04"), web.Num(m.HoursBefore, 1)),
 			Findings: take("pre_event_meal")}
-		if sg := suggestions[store.FeedKey("pre_event", m.At.In(loc).Format(time.DateOnly), 0)]; sg != "" {
+		if sg := suggestions[store.FeedKey("pre_event", menu.FeedDate(plan, m.At), 0)]; sg != "" {
 			pv.PreEvent.Hint = "For example: " + sg
 		}
 	}
@@ -170,9 +167,14 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		pv.During = &web.Fact{Label: fmt.Sprintf("In-event carbohydrate over %s (%s g in all)", hoursWords(d.DurationMin), web.Num(d.TotalChoG, 0)),
 			Value: web.Num(d.ChoGPerH, 0), Overridden: d.Overridden, Findings: take("during_event")}
 		pv.DuringName = duringName
-		if d.ChoGPerH > 0 {
-			if sg, ok := menu.Suggest(foods, menu.Need{ChoG: d.ChoGPerH, OnTheMove: true, GlutenFree: menu.GlutenFreeFor(c.Cautions)}); ok {
-				pv.DuringSugg = sg.Text()
+		// The in-event feed's stored food plan, the one the day table shows.
+		for _, day := range plan.Days {
+			for i, fd := range day.Feeds {
+				if fd.Label == "during event" {
+					if sg := suggestions[store.FeedKey("day", day.Date, i)]; sg != menu.NoFit {
+						pv.DuringSugg = sg
+					}
+				}
 			}
 		}
 	}
@@ -208,10 +210,10 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		pv.Repletion = &web.Fact{Label: "Repletion window", Value: val, Findings: take("repletion"),
 			Hint: fmt.Sprintf("Expected muscle glycogen at the next start: %s g of %s g possible.", web.Num(rp.MuscleGAtNextStart, 0), web.Num(rp.MuscleGCapacity, 0))}
 		for i, fd := range rp.Feeds {
-			date := fd.At.In(loc).Format(time.DateOnly)
+			date := menu.FeedDate(plan, fd.At)
 			pv.RepletionFeeds = append(pv.RepletionFeeds, web.FeedView{
 				Time: fd.At.In(loc).Format("Mon 15:04"), Label: fd.Label, ChoG: web.Num(fd.ChoG, 0), ProteinG: web.Num(fd.ProteinG, 0),
-				Overridden: fd.Overridden, Suggestion: suggestions[store.FeedKey("repletion", date, i)],
+				Overridden: fd.Overridden, Suggestion: suggestions[store.FeedKey("repletion", date, i)], Key: store.FeedKey("repletion", date, i),
 				Findings: take(fmt.Sprintf("repletion_feed:%d", i)),
 			})
 		}

@@ -6,6 +6,7 @@ import "github.com/go-chi/chi/v5"
 func (s *Server) mountStaffRoutes(r chi.Router) {
 	r.Get("/account", s.accountPage)
 	r.Post("/account/password", s.changePassword)
+	r.Post("/account/sessions/{sessionID}/end", s.endSession)
 
 	r.Get("/clients", s.clientList)
 	r.Get("/clients/new", s.clientNewPage)

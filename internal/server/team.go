@@ -15,10 +15,14 @@ import (
 // accounts, reset passwords, and name the practice.
 
 func (s *Server) teamPage(w http.ResponseWriter, r *http.Request) {
-	s.renderTeam(w, r, http.StatusOK, forms.New(), forms.Form{})
+	s.renderTeam(w, r, http.StatusOK, forms.New(), forms.Form{}, "")
 }
 
-func (s *Server) renderTeam(w http.ResponseWriter, r *http.Request, status int, add, practice forms.Form) {
+// renderTeam shows the Team page. secret, when set, is a notice holding a
+// new password: it is written into this one response (sent with
+// Cache-Control: no-store) and nowhere else — not into the session, whose
+// row would keep it, nor into a log.
+func (s *Server) renderTeam(w http.ResponseWriter, r *http.Request, status int, add, practice forms.Form, secret string) {
 	users, err := s.Store.ListUsers(r.Context())
 	if err != nil {
 		s.ServerError(w, r, err)
@@ -40,7 +44,7 @@ func (s *Server) renderTeam(w http.ResponseWriter, r *http.Request, status int, 
 		return
 	}
 	s.Render(w, r, status, "Team", "team", web.Team(web.TeamData{
-		Me: *CurrentUser(r), Users: users, Add: add, Practice: practice, Recent: recent,
+		Me: *CurrentUser(r), Users: users, Add: add, Practice: practice, Recent: recent, Secret: secret,
 	}))
 }
 
@@ -52,7 +56,7 @@ func (s *Server) teamAdd(w http.ResponseWriter, r *http.Request) {
 	f := forms.Decode(r.PostForm, &in)
 	f.Values.Del("password")
 	if f.Has() {
-		s.renderTeam(w, r, http.StatusUnprocessableEntity, f, forms.Form{})
+		s.renderTeam(w, r, http.StatusUnprocessableEntity, f, forms.Form{}, "")
 		return
 	}
 	password := in.Password
@@ -69,7 +73,7 @@ func (s *Server) teamAdd(w http.ResponseWriter, r *http.Request) {
 	if err := s.Store.CreateUser(r.Context(), Actor(r), &u); err != nil {
 		if errors.Is(err, store.ErrEmailTaken) {
 			f.Errors.Add("email", "Someone on the team already signs in with this email.")
-			s.renderTeam(w, r, http.StatusUnprocessableEntity, f, forms.Form{})
+			s.renderTeam(w, r, http.StatusUnprocessableEntity, f, forms.Form{}, "")
 			return
 		}
 		s.ServerError(w, r, err)
@@ -77,7 +81,9 @@ func (s *Server) teamAdd(w http.ResponseWriter, r *http.Request) {
 	}
 	msg := u.Name + " can now sign in as " + u.Email + "."
 	if generated {
-		msg += " Their password is " + password + " — give it to them privately; they can change it under their name at the top of the page."
+		s.renderTeam(w, r, http.StatusOK, forms.New(), forms.Form{}, msg+" Their password is "+password+
+			" — give it to them privately now: it is shown only this once. They can change it under their name at the top of the page.")
+		return
 	}
 	s.Flash(r, msg)
 	Redirect(w, r, "/team")
@@ -164,12 +170,25 @@ func (s *Server) teamResetPassword(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	if err := s.Store.SetUserPassword(r.Context(), Actor(r), u.ID, hash); err != nil {
+	// A reset ends every session of the user; resetting one's own password
+	// keeps (and renews) only the session doing it.
+	var keep int64
+	self := u.ID == CurrentUser(r).ID
+	if self {
+		keep = s.currentSessionID(r)
+	}
+	if err := s.Store.SetUserPassword(r.Context(), Actor(r), u.ID, hash, keep); err != nil {
 		s.StoreError(w, r, err)
 		return
 	}
-	s.Flash(r, "New password for "+u.Name+": "+password+" — give it to them privately; they can change it under their name at the top of the page.")
-	Redirect(w, r, "/team")
+	if self {
+		if err := s.Sessions.RenewToken(r.Context()); err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
+	}
+	s.renderTeam(w, r, http.StatusOK, forms.New(), forms.Form{}, "New password for "+u.Name+": "+password+
+		" — give it to them privately now: it is shown only this once. Any device signed in as them is signed out. They can change it under their name at the top of the page.")
 }
 
 func (s *Server) teamPractice(w http.ResponseWriter, r *http.Request) {
@@ -179,7 +198,7 @@ func (s *Server) teamPractice(w http.ResponseWriter, r *http.Request) {
 	var in practiceForm
 	f := forms.Decode(r.PostForm, &in)
 	if f.Has() {
-		s.renderTeam(w, r, http.StatusUnprocessableEntity, forms.Form{}, f)
+		s.renderTeam(w, r, http.StatusUnprocessableEntity, forms.Form{}, f, "")
 		return
 	}
 	if err := s.Store.SetSetting(r.Context(), Actor(r), store.SettingPracticeName, in.PracticeName); err != nil {

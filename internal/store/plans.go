@@ -191,11 +191,11 @@ func writeRows(ctx context.Context, tx pgx.Tx, versionID int64, c PlanContent) e
 		}
 	}
 	if m := c.Result.PreEventMeal; m != nil {
-		feed("pre_event", m.At.Format(time.DateOnly), 0, fuel.Feed{At: m.At, Label: "pre-event meal", ChoG: m.ChoG})
+		feed("pre_event", menu.FeedDate(c.Result, m.At), 0, fuel.Feed{At: m.At, Label: "pre-event meal", ChoG: m.ChoG})
 	}
 	if r := c.Result.Repletion; r != nil {
 		for i, f := range r.Feeds {
-			feed("repletion", f.At.Format(time.DateOnly), i, f)
+			feed("repletion", menu.FeedDate(c.Result, f.At), i, f)
 		}
 	}
 	return tx.SendBatch(ctx, b).Close()
@@ -298,6 +298,13 @@ func (s *Store) Publish(ctx context.Context, actor Actor, versionID int64, revis
 // instead, so that two people revising at once work on the same draft (and
 // the revision check keeps them from overwriting each other).
 func (s *Store) NewVersion(ctx context.Context, actor Actor, planID int64, from int64) (PlanVersion, error) {
+	return s.NewVersionWith(ctx, actor, planID, from, nil)
+}
+
+// NewVersionWith is NewVersion with the new draft's food suggestions made
+// afresh (by FeedKey, from the current foods list) instead of copied; nil
+// copies them. An existing draft is returned unchanged.
+func (s *Store) NewVersionWith(ctx context.Context, actor Actor, planID int64, from int64, fresh map[string]string) (PlanVersion, error) {
 	var v PlanVersion
 	err := s.inTx(ctx, func(tx pgx.Tx) error {
 		// Lock the plan so that two revisions started at once number correctly.
@@ -320,9 +327,11 @@ func (s *Store) NewVersion(ctx context.Context, actor Actor, planID int64, from 
 		if err := tx.QueryRow(ctx, `SELECT max(version) + 1 FROM plan_versions WHERE plan_id = $1`, planID).Scan(&next); err != nil {
 			return err
 		}
-		sugg, err := suggestionsOf(ctx, tx, src.ID)
-		if err != nil {
-			return err
+		sugg := fresh
+		if sugg == nil {
+			if sugg, err = suggestionsOf(ctx, tx, src.ID); err != nil {
+				return err
+			}
 		}
 		id, err := insertVersion(ctx, tx, actor, planID, next, PlanContent{
 			Request: src.Request, Result: src.Result, BodyMassKg: src.BodyMassKg, BodyMassOn: src.BodyMassOn, Suggestions: sugg})

@@ -117,8 +117,9 @@ func (s *Store) SetUserRole(ctx context.Context, actor Actor, id int64, role str
 	})
 }
 
-// SetUserDisabled disables or re-enables a user. A disabled user's sessions
-// stop working at their next request, since every request reloads the user.
+// SetUserDisabled disables or re-enables a user. Disabling ends all of the
+// user's sessions (and every request reloads the user, so a disabled
+// account is refused even before that).
 func (s *Store) SetUserDisabled(ctx context.Context, actor Actor, id int64, disabled bool) error {
 	return s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := execOne(ctx, tx, `UPDATE users SET disabled = $2 WHERE id = $1`, id, disabled); err != nil {
@@ -127,18 +128,28 @@ func (s *Store) SetUserDisabled(ctx context.Context, actor Actor, id int64, disa
 		action := "enable"
 		if disabled {
 			action = "disable"
+			if _, err := endSessionsTx(ctx, tx, id, 0); err != nil {
+				return err
+			}
 		}
 		return AuditTx(ctx, tx, actor, action, "user", id, nil)
 	})
 }
 
-// SetUserPassword stores a new password hash (own change or admin reset).
-func (s *Store) SetUserPassword(ctx context.Context, actor Actor, id int64, hash string) error {
+// SetUserPassword stores a new password hash (own change or admin reset)
+// and ends every session of the user but keepSession (the session making
+// the change, when the user changes their own password; 0 ends them all):
+// whoever knew the old password is signed out everywhere at once.
+func (s *Store) SetUserPassword(ctx context.Context, actor Actor, id int64, hash string, keepSession int64) error {
 	return s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := execOne(ctx, tx, `UPDATE users SET password_hash = $2 WHERE id = $1`, id, hash); err != nil {
 			return err
 		}
-		return AuditTx(ctx, tx, actor, "set_password", "user", id, nil)
+		ended, err := endSessionsTx(ctx, tx, id, keepSession)
+		if err != nil {
+			return err
+		}
+		return AuditTx(ctx, tx, actor, "set_password", "user", id, map[string]any{"sessions_ended": ended})
 	})
 }
 
