@@ -221,12 +221,21 @@ func AuditText(a store.AuditEntry) string {
 		"sign_in": "signed in", "sign_out": "signed out", "set_password": "set the password of", "change_role": "changed the role of",
 		"disable": "disabled", "enable": "enabled", "load": "loaded", "revoke": "revoked",
 		"publish": "published", "revise": "started a new version of", "discard": "discarded",
+		"end_session": "ended a session of",
 	}[a.Action]
 	if verb == "" {
 		verb = a.Action
 	}
 	if a.Action == "sign_in" || a.Action == "sign_out" {
 		return verb
+	}
+	if a.Action == "sign_in_failed" {
+		var d map[string]any
+		_ = json.Unmarshal(a.Detail, &d)
+		email, _ := d["email"].(string)
+		address, _ := d["address"].(string)
+		reason, _ := d["reason"].(string)
+		return "failed sign-in as " + email + " from " + address + " (" + reason + ")"
 	}
 	noun := map[string]string{"client": "client", "body_mass": "a body-mass measurement", "training": "a training session",
 		"event": "an event", "user": "staff account", "setting": "a practice setting", "demo": "the demo practice", "client_link": "a client link",

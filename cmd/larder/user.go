@@ -63,6 +63,8 @@ func userAdd(ctx context.Context, args []string, stdin io.Reader, stdout, stderr
 	}
 	if len(pw) < auth.MinPasswordLen || len(pw) > auth.MaxPasswordLen {
 		problems = append(problems, fmt.Sprintf("the password must be %d to %d characters long", auth.MinPasswordLen, auth.MaxPasswordLen))
+	} else if auth.IsCommonPassword(pw) {
+		problems = append(problems, "the password is one of the most common ones, which attackers try first; choose another")
 	}
 	if len(problems) > 0 {
 		for _, p := range problems {

@@ -54,3 +54,23 @@ func FuzzCheckPassword(f *testing.F) {
 		_, _ = CheckPassword(encoded, pw)
 	})
 }
+
+// Passwords from the shipped list are refused whatever their case; an
+// ordinary long passphrase is not. "password123" and "1234567890" are on
+// every published list of common passwords (common practice).
+func TestIsCommonPassword(t *testing.T) {
+	for _, pw := range []string{"password123", "1234567890", "Password123", " qwertyuiop ", "1q2w3e4r5t"} {
+		if !IsCommonPassword(pw) {
+			t.Errorf("%q not refused", pw)
+		}
+	}
+	for _, pw := range []string{"a long test password", "another long password", "spinach kettle orbit"} {
+		if IsCommonPassword(pw) {
+			t.Errorf("%q refused", pw)
+		}
+	}
+	// The list is the length-filtered one its README describes.
+	if n := strings.Count(commonList, "\n"); n != 1090 {
+		t.Errorf("list has %d lines, README says 1,090", n)
+	}
+}

@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"net/http"
 	"strings"
-	"time"
 
 	"larder/internal/auth"
 	"larder/internal/forms"
@@ -42,13 +41,6 @@ func (s *Server) signInPage(w http.ResponseWriter, r *http.Request) {
 	s.Render(w, r, http.StatusOK, "Sign in", "", web.SignIn(f, notice))
 }
 
-// Sign-in pauses for an email after signInLimit wrong passwords within
-// signInWindow: enough for honest typos, far too few to guess a password.
-const (
-	signInLimit  = 10
-	signInWindow = 15 * time.Minute
-)
-
 func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 	if !s.ParseForm(w, r) {
 		return
@@ -60,15 +52,17 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 		s.Render(w, r, http.StatusUnprocessableEntity, "Sign in", "", web.SignIn(f, ""))
 		return
 	}
-	failures, err := s.Store.SignInFailures(r.Context(), in.Email, time.Now().Add(-signInWindow))
+	address := clientAddress(r)
+	counts, err := s.Store.SignInFailures(r.Context(), in.Email, address, signInWindow)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
-	if failures >= signInLimit {
-		// The password is not even checked, so guessing gains nothing.
-		s.Log.Warn("sign-in paused after repeated failures", "email", in.Email)
-		f.Errors.Add("password", fmt.Sprintf("Too many wrong passwords for this email in the last %d minutes. Wait a while and try again, or ask an administrator of the practice to reset your password.", int(signInWindow.Minutes())))
+	if wait, whole := signInWait(counts); wait > 0 {
+		// The password is not even checked, so guessing during a wait gains nothing.
+		s.Log.Warn("sign-in refused: too soon after failures", "address", address, "wait_s", int(wait.Seconds()))
+		w.Header().Set("Retry-After", fmt.Sprint(int(wait.Seconds())+1))
+		f.Errors.Add("password", throttleMessage(wait, whole))
 		s.Render(w, r, http.StatusTooManyRequests, "Sign in", "", web.SignIn(f, ""))
 		return
 	}
@@ -87,8 +81,12 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 	}
 	switch {
 	case err != nil || !ok:
-		s.Log.Info("sign-in refused", "email", in.Email)
-		if err := s.Store.RecordSignInFailure(r.Context(), in.Email); err != nil {
+		s.Log.Info("sign-in refused", "address", address)
+		reason := "wrong password"
+		if err != nil {
+			reason = "unknown email"
+		}
+		if err := s.Store.RecordSignInFailure(r.Context(), in.Email, address, u.ID, reason); err != nil {
 			s.Log.Warn("record sign-in failure", "err", err)
 		}
 		f.Errors.Add("password", "The email or password is not right. Please try again.")
@@ -103,7 +101,7 @@ func (s *Server) signIn(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	if err := s.Store.ClearSignInFailures(r.Context(), in.Email); err != nil {
+	if err := s.Store.ClearSignInFailures(r.Context(), in.Email, address); err != nil {
 		s.Log.Warn("clear sign-in failures", "err", err)
 	}
 	if err := s.Store.Audit(r.Context(), store.Actor(u.ID), "sign_in", "user", u.ID, nil); err != nil {
@@ -154,6 +152,9 @@ func (s *Server) setup(w http.ResponseWriter, r *http.Request) {
 	}
 	var in setupForm
 	f := forms.Decode(r.PostForm, &in)
+	if f.Err("password") == "" && auth.IsCommonPassword(in.Password) {
+		f.Errors.Add("password", auth.CommonPasswordMessage)
+	}
 	f.Values.Del("password")
 	f.Values.Del("confirm")
 	if f.Has() {
@@ -203,6 +204,8 @@ func (s *Server) changePassword(w http.ResponseWriter, r *http.Request) {
 	if !f.Has() {
 		if ok, _ := auth.CheckPassword(u.PasswordHash, in.Current); !ok {
 			f.Errors.Add("current", "The current password is not right.")
+		} else if auth.IsCommonPassword(in.New) {
+			f.Errors.Add("new", auth.CommonPasswordMessage)
 		}
 	}
 	if f.Has() {

@@ -54,6 +54,9 @@ func (s *Server) teamAdd(w http.ResponseWriter, r *http.Request) {
 	}
 	var in newUserForm
 	f := forms.Decode(r.PostForm, &in)
+	if in.Password != "" && f.Err("password") == "" && auth.IsCommonPassword(in.Password) {
+		f.Errors.Add("password", auth.CommonPasswordMessage)
+	}
 	f.Values.Del("password")
 	if f.Has() {
 		s.renderTeam(w, r, http.StatusUnprocessableEntity, f, forms.Form{}, "")
