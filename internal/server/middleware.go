@@ -131,11 +131,3 @@ func (s *Server) requireAdmin(next http.Handler) http.Handler {
 		next.ServeHTTP(w, r)
 	})
 }
-
-// safeNext keeps a post-sign-in redirect on this site: only a local path.
-func safeNext(next string) string {
-	if next == "" || !strings.HasPrefix(next, "/") || strings.HasPrefix(next, "//") || strings.HasPrefix(next, "/\\") || strings.ContainsAny(next, "\r\n") {
-		return "/clients"
-	}
-	return next
-}
