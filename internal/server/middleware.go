@@ -39,7 +39,7 @@ func (s *Server) logRequests(next http.Handler) http.Handler {
 		start := time.Now()
 		ww := middleware.NewWrapResponseWriter(w, r.ProtoMajor)
 		next.ServeHTTP(ww, r)
-		s.Log.Info("request", "method", r.Method, "path", r.URL.Path, "status", ww.Status(),
+		s.Log.Info("request", "method", r.Method, "path", logPath(r), "query_keys", logQuery(r), "status", ww.Status(),
 			"bytes", ww.BytesWritten(), "duration_ms", time.Since(start).Milliseconds())
 	})
 }
@@ -65,7 +65,7 @@ func (s *Server) recoverPanics(next http.Handler) http.Handler {
 				if v == http.ErrAbortHandler {
 					panic(v)
 				}
-				s.Log.Error("panic", "path", r.URL.Path, "value", v, "stack", string(debug.Stack()))
+				s.Log.Error("panic", "path", logPath(r), "value", v, "stack", string(debug.Stack()))
 				http.Error(w, "Something went wrong on our side. Please try again.", http.StatusInternalServerError)
 			}
 		}()

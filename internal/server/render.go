@@ -26,7 +26,7 @@ func (s *Server) Render(w http.ResponseWriter, r *http.Request, status int, titl
 	w.Header().Set("Cache-Control", "no-store")
 	w.WriteHeader(status)
 	if err := web.Layout(p, body).Render(r.Context(), w); err != nil {
-		s.Log.Error("render", "path", r.URL.Path, "err", err)
+		s.Log.Error("render", "path", logPath(r), "err", err)
 	}
 }
 
@@ -51,7 +51,7 @@ func Redirect(w http.ResponseWriter, r *http.Request, url string) {
 
 // ServerError logs err and shows a plain 500 page.
 func (s *Server) ServerError(w http.ResponseWriter, r *http.Request, err error) {
-	s.Log.Error("server error", "method", r.Method, "path", r.URL.Path, "err", err)
+	s.Log.Error("server error", "method", r.Method, "path", logPath(r), "err", err)
 	s.Render(w, r, http.StatusInternalServerError, "Error", "",
 		web.Message("Something went wrong", "The request could not be completed because of a problem on our side. Nothing was changed. Please try again; if it keeps happening, tell your administrator."))
 }
