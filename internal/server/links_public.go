@@ -44,30 +44,26 @@ func clientLinkHeaders(next http.Handler) http.Handler {
 	})
 }
 
-// linkClient resolves {token} to its client; ok is false (and the plain
-// "no longer valid" page written) for anything else.
-func (s *Server) linkClient(w http.ResponseWriter, r *http.Request) (store.Client, bool) {
+// openLink resolves {token} to what its pages show, in one round trip
+// (plus one write an hour to record the link's use); ok is false (and the
+// plain "no longer valid" page written) for anything else.
+func (s *Server) openLink(w http.ResponseWriter, r *http.Request) (store.LinkOpen, bool) {
 	token := chi.URLParam(r, "token")
 	if !auth.LinkTokenShape(token) {
 		s.linkGone(w, r)
-		return store.Client{}, false
+		return store.LinkOpen{}, false
 	}
 	hash := auth.HashLinkToken(token)
-	l, err := s.Store.UseClientLink(r.Context(), hash, s.Now())
-	if errors.Is(err, store.ErrNotFound) || (err == nil && !auth.LinkHashEqual(l.TokenHash, hash)) {
+	o, err := s.Store.OpenClientLink(r.Context(), hash, s.Now())
+	if errors.Is(err, store.ErrNotFound) || (err == nil && !auth.LinkHashEqual(o.Link.TokenHash, hash)) {
 		s.linkGone(w, r)
-		return store.Client{}, false
+		return store.LinkOpen{}, false
 	}
 	if err != nil {
 		s.linkError(w, r, err)
-		return store.Client{}, false
+		return store.LinkOpen{}, false
 	}
-	c, err := s.Store.ClientByID(r.Context(), l.ClientID)
-	if err != nil {
-		s.linkError(w, r, err)
-		return store.Client{}, false
-	}
-	return c, true
+	return o, true
 }
 
 func (s *Server) linkGone(w http.ResponseWriter, r *http.Request) {
@@ -87,23 +83,25 @@ func (s *Server) linkError(w http.ResponseWriter, r *http.Request, err error) {
 // linkPlan is a published plan seen from the client's side.
 type linkPlan struct {
 	store.PublishedPlan
+	eventName   string // "" when the plan has no event
 	loc         *time.Location
 	first, last string // plan day dates, YYYY-MM-DD
 }
 
-// linkPlans loads a client's published plans with their zones and spans.
-func (s *Server) linkPlans(r *http.Request, clientID int64) ([]linkPlan, error) {
-	pubs, err := s.Store.PublishedPlans(r.Context(), clientID)
+// linkPlans loads the link's published plans (decoded versions come from
+// the store's cache of frozen versions) with their zones and spans.
+func (s *Server) linkPlans(r *http.Request, o store.LinkOpen) ([]linkPlan, error) {
+	pubs, err := s.Store.LoadPublished(r.Context(), o.Plans)
 	if err != nil {
 		return nil, err
 	}
 	var out []linkPlan
-	for _, p := range pubs {
+	for i, p := range pubs {
 		days := p.Version.Result.Days
 		if len(days) == 0 {
 			continue
 		}
-		lp := linkPlan{PublishedPlan: p, loc: planZone(p.Version.Result.TimeZone), first: days[0].Date, last: days[0].Date}
+		lp := linkPlan{PublishedPlan: p, eventName: o.Plans[i].EventName, loc: planZone(p.Version.Result.TimeZone), first: days[0].Date, last: days[0].Date}
 		for _, d := range days {
 			lp.first, lp.last = min(lp.first, d.Date), max(lp.last, d.Date)
 		}
@@ -172,23 +170,23 @@ func publishedAt(p linkPlan) time.Time {
 const nextDaysShown = 4
 
 func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
-	c, ok := s.linkClient(w, r)
+	o, ok := s.openLink(w, r)
 	if !ok {
 		return
 	}
-	plans, err := s.linkPlans(r, c.ID)
+	plans, err := s.linkPlans(r, o)
 	if err != nil {
 		s.linkError(w, r, err)
 		return
 	}
 	now := s.Now()
 	v := web.ClientDayView{
-		PracticeName: s.PracticeName(r), FirstName: firstName(c.Name), Caution: fuel.Caution,
-		Cautions: splitCautions(c.Cautions), CalendarURL: r.URL.Path + "/plan.ics",
+		PracticeName: o.PracticeName, FirstName: firstName(o.ClientName), Caution: fuel.Caution,
+		Cautions: splitCautions(o.ClientCautions), CalendarURL: r.URL.Path + "/plan.ics",
 		DateLabel: now.UTC().Format("Monday 2 January 2006"),
 	}
 	if p, today, ok := currentPlan(plans, now); ok {
-		s.fillDay(r, &v, p, today, now)
+		fillDay(&v, p, today, now)
 	}
 	w.Header().Set("Content-Type", "text/html; charset=utf-8")
 	if err := web.ClientDayPage(v).Render(r.Context(), w); err != nil {
@@ -198,7 +196,7 @@ func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
 
 // fillDay puts today's part of plan p, and its coming days, into v. Every
 // figure is the stored plan's, only formatted.
-func (s *Server) fillDay(r *http.Request, v *web.ClientDayView, p linkPlan, today string, now time.Time) {
+func fillDay(v *web.ClientDayView, p linkPlan, today string, now time.Time) {
 	plan := p.Version.Result
 	if plan.Caution != "" {
 		v.Caution = plan.Caution
@@ -209,7 +207,7 @@ func (s *Server) fillDay(r *http.Request, v *web.ClientDayView, p linkPlan, toda
 	for _, d := range plan.Days {
 		switch {
 		case d.Date == today:
-			v.Today = s.todayView(r, p, d)
+			v.Today = todayView(p, d)
 		case d.Date > today && len(v.Next) < nextDaysShown:
 			v.Next = append(v.Next, web.ClientDayBrief{DateLabel: dayWords(d.Date), Role: clientRoleWords(d),
 				ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1), Event: d.Role == "event"})
@@ -220,7 +218,7 @@ func (s *Server) fillDay(r *http.Request, v *web.ClientDayView, p linkPlan, toda
 	}
 }
 
-func (s *Server) todayView(r *http.Request, p linkPlan, d fuel.Day) *web.ClientToday {
+func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
 	plan := p.Version.Result
 	t := &web.ClientToday{Role: clientRoleWords(d), ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1),
 		ProteinG: web.Num(d.ProteinG, 0), FatG: web.Num(d.FatG, 0), EnergyKcal: web.Num(d.EnergyKcal, 0),
@@ -248,12 +246,8 @@ func (s *Server) todayView(r *http.Request, p linkPlan, d fuel.Day) *web.ClientT
 		return t
 	}
 	e := &web.ClientEventDay{Name: "Your event", Start: ev.StartsAt.In(p.loc).Format("15:04")}
-	if p.Plan.EventID != nil {
-		if stored, err := s.Store.EventByID(r.Context(), p.Plan.ClientID, *p.Plan.EventID); err == nil {
-			e.Name = stored.Name
-		} else if !errors.Is(err, store.ErrNotFound) {
-			s.Log.Warn("client link event", "plan", p.Plan.ID, "err", err)
-		}
+	if p.eventName != "" {
+		e.Name = p.eventName
 	}
 	if m := plan.PreEventMeal; m != nil {
 		e.PreMealTime, e.PreMealChoG = m.At.In(p.loc).Format("15:04"), web.Num(m.ChoG, 0)
@@ -270,17 +264,17 @@ func (s *Server) todayView(r *http.Request, p linkPlan, d fuel.Day) *web.ClientT
 const feedLinkWindow = 7 * 24 * time.Hour
 
 func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
-	c, ok := s.linkClient(w, r)
+	o, ok := s.openLink(w, r)
 	if !ok {
 		return
 	}
-	plans, err := s.linkPlans(r, c.ID)
+	plans, err := s.linkPlans(r, o)
 	if err != nil {
 		s.linkError(w, r, err)
 		return
 	}
 	now := s.Now()
-	cal := sheet.ICSCalendar{ProdID: "-//Larder//Client link//EN", Name: "Fuelling plan · " + firstName(c.Name)}
+	cal := sheet.ICSCalendar{ProdID: "-//Larder//Client link//EN", Name: "Fuelling plan · " + firstName(o.ClientName)}
 	owners := dayOwners(plans)
 	for _, p := range plans {
 		if p.last < now.Add(-feedLinkWindow).In(p.loc).Format(time.DateOnly) {
@@ -298,16 +292,14 @@ func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
 		}
 		ip := sheet.ICSPlan{PlanID: p.Plan.ID, Version: p.Version.Version, Published: publishedAt(p),
 			Plan: result, Suggestions: withoutNoFit(p.Suggestions)}
-		if strings.TrimSpace(c.Cautions) != "" {
+		if strings.TrimSpace(o.ClientCautions) != "" {
 			ip.FoodNote = "The food ideas are examples only. Swap them for foods that suit your health note and that you know you tolerate."
 		}
 		if ev := p.Version.Request.Event; ev != nil && owners[ev.StartsAt.In(p.loc).Format(time.DateOnly)] == p.Plan.ID {
 			start := ev.StartsAt
 			ip.EventStart, ip.EventDurationMin, ip.EventName = &start, ev.ExpectedDurationMin, "Event start"
-			if p.Plan.EventID != nil {
-				if stored, err := s.Store.EventByID(r.Context(), c.ID, *p.Plan.EventID); err == nil {
-					ip.EventName = stored.Name
-				}
+			if p.eventName != "" {
+				ip.EventName = p.eventName
 			}
 		}
 		cal.Events = append(cal.Events, sheet.ICSPlanEvents(ip)...)

@@ -102,22 +102,6 @@ func (s *Store) RevokeClientLink(ctx context.Context, actor Actor, clientID, id 
 	})
 }
 
-// UseClientLink finds the link whose token hashes to hash and that is
-// neither revoked nor expired at now, of a client who is not archived, and
-// records now as its last use. Any other case (unknown, expired, revoked,
-// archived client) is ErrNotFound alike, so callers
-// cannot tell them apart and neither can the person holding the link.
-func (s *Store) UseClientLink(ctx context.Context, hash []byte, now time.Time) (ClientLink, error) {
-	var l ClientLink
-	err := s.Pool.QueryRow(ctx, `UPDATE client_links l SET last_used_at = $2
-		FROM (SELECT k.id FROM client_links k JOIN clients c ON c.id = k.client_id
-			WHERE k.token_hash = $1 AND k.revoked_at IS NULL AND k.expires_at > $2 AND c.archived_at IS NULL) AS hit
-		WHERE l.id = hit.id
-		RETURNING l.id, l.client_id, l.token_hash, l.label, l.created_by, '', l.created_at, l.expires_at, l.revoked_at, l.last_used_at`,
-		hash, now).Scan(linkDest(&l)...)
-	return l, notFound(err)
-}
-
 // PublishedPlan is a plan with its published version.
 type PublishedPlan struct {
 	Plan    Plan
@@ -125,40 +109,4 @@ type PublishedPlan struct {
 	// Suggestions are the food suggestions stored with the version's feeds,
 	// by FeedKey.
 	Suggestions map[string]string
-}
-
-// PublishedPlans loads every plan of a client that has a published version,
-// with that version and its stored food suggestions, oldest plan first.
-// Drafts and superseded versions are never part of it.
-func (s *Store) PublishedPlans(ctx context.Context, clientID int64) ([]PublishedPlan, error) {
-	var out []PublishedPlan
-	err := s.inTx(ctx, func(tx pgx.Tx) error {
-		rows, err := tx.Query(ctx, `SELECT `+planCols+` FROM plans p
-			WHERE p.client_id = $1 AND EXISTS (SELECT 1 FROM plan_versions v WHERE v.plan_id = p.id AND v.status = 'published')
-			ORDER BY p.created_at, p.id`, clientID)
-		if err != nil {
-			return err
-		}
-		plans, err := pgx.CollectRows(rows, func(r pgx.CollectableRow) (Plan, error) {
-			var p Plan
-			err := r.Scan(planDest(&p)...)
-			return p, err
-		})
-		if err != nil {
-			return err
-		}
-		for _, p := range plans {
-			v, err := scanVersion(tx.QueryRow(ctx, `SELECT `+versionCols+versionFrom+`WHERE v.plan_id = $1 AND v.status = 'published'`, p.ID))
-			if err != nil {
-				return err
-			}
-			sugg, err := suggestionsOf(ctx, tx, v.ID)
-			if err != nil {
-				return err
-			}
-			out = append(out, PublishedPlan{Plan: p, Version: v, Suggestions: sugg})
-		}
-		return nil
-	})
-	return out, err
 }

@@ -40,15 +40,15 @@ func TestClientLinkLifecycle(t *testing.T) {
 		t.Fatal("a non-hash token accepted")
 	}
 
-	got, err := st.UseClientLink(ctx, l.TokenHash, now.Add(time.Hour))
-	if err != nil || got.ClientID != c.ID || got.LastUsedAt == nil || !got.LastUsedAt.Equal(now.Add(time.Hour)) {
+	got, err := st.OpenClientLink(ctx, l.TokenHash, now.Add(time.Hour))
+	if err != nil || got.Link.ClientID != c.ID || got.Link.LastUsedAt == nil || !got.Link.LastUsedAt.Equal(now.Add(time.Hour)) {
 		t.Fatalf("use: %+v %v", got, err)
 	}
-	if _, err := st.UseClientLink(ctx, linkHash("unknown"), now); !errors.Is(err, store.ErrNotFound) {
+	if _, err := st.OpenClientLink(ctx, linkHash("unknown"), now); !errors.Is(err, store.ErrNotFound) {
 		t.Fatalf("unknown hash: %v", err)
 	}
 	// At the expiry instant the link no longer works.
-	if _, err := st.UseClientLink(ctx, l.TokenHash, l.ExpiresAt); !errors.Is(err, store.ErrNotFound) {
+	if _, err := st.OpenClientLink(ctx, l.TokenHash, l.ExpiresAt); !errors.Is(err, store.ErrNotFound) {
 		t.Fatalf("expired link: %v", err)
 	}
 	if s := l.Status(l.ExpiresAt); s != store.LinkExpired {
@@ -71,7 +71,7 @@ func TestClientLinkLifecycle(t *testing.T) {
 	if auditCount(t, st, "client_link", l.ID) != 2 {
 		t.Fatal("want create and revoke audit rows, and nothing for the refused second revoke")
 	}
-	if _, err := st.UseClientLink(ctx, l.TokenHash, now.Add(3*time.Hour)); !errors.Is(err, store.ErrNotFound) {
+	if _, err := st.OpenClientLink(ctx, l.TokenHash, now.Add(3*time.Hour)); !errors.Is(err, store.ErrNotFound) {
 		t.Fatalf("revoked link: %v", err)
 	}
 	links, err := st.ClientLinks(ctx, c.ID)
@@ -151,19 +151,19 @@ func TestClientLinkStopsForArchivedClient(t *testing.T) {
 	if err := st.CreateClientLink(ctx, store.System, &l); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := st.UseClientLink(ctx, l.TokenHash, now); err != nil {
+	if _, err := st.OpenClientLink(ctx, l.TokenHash, now); err != nil {
 		t.Fatalf("active client's link: %v", err)
 	}
 	if err := st.ArchiveClient(ctx, store.System, c.ID); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := st.UseClientLink(ctx, l.TokenHash, now); !errors.Is(err, store.ErrNotFound) {
+	if _, err := st.OpenClientLink(ctx, l.TokenHash, now); !errors.Is(err, store.ErrNotFound) {
 		t.Fatalf("archived client's link still works: %v", err)
 	}
 	if err := st.UnarchiveClient(ctx, store.System, c.ID); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := st.UseClientLink(ctx, l.TokenHash, now); err != nil {
+	if _, err := st.OpenClientLink(ctx, l.TokenHash, now); err != nil {
 		t.Fatalf("unarchived client's link: %v", err)
 	}
 }

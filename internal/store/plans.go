@@ -346,8 +346,13 @@ func (s *Store) NewVersionWith(ctx context.Context, actor Actor, planID int64, f
 	return v, err
 }
 
-func suggestionsOf(ctx context.Context, tx pgx.Tx, versionID int64) (map[string]string, error) {
-	rows, err := tx.Query(ctx, `SELECT kind, on_date::text, feed_index, suggestion FROM plan_feeds WHERE plan_version_id = $1 AND suggestion <> ''`, versionID)
+// querier is a pool or a transaction: what a read needs.
+type querier interface {
+	Query(ctx context.Context, sql string, args ...any) (pgx.Rows, error)
+}
+
+func suggestionsOf(ctx context.Context, q querier, versionID int64) (map[string]string, error) {
+	rows, err := q.Query(ctx, `SELECT kind, on_date::text, feed_index, suggestion FROM plan_feeds WHERE plan_version_id = $1 AND suggestion <> ''`, versionID)
 	if err != nil {
 		return nil, err
 	}
@@ -392,13 +397,7 @@ func (s *Store) PublishedPlanVersion(ctx context.Context, planID int64) (PlanVer
 
 // FeedSuggestions returns the stored food suggestions of a version, by FeedKey.
 func (s *Store) FeedSuggestions(ctx context.Context, versionID int64) (map[string]string, error) {
-	var out map[string]string
-	err := s.inTx(ctx, func(tx pgx.Tx) error {
-		var err error
-		out, err = suggestionsOf(ctx, tx, versionID)
-		return err
-	})
-	return out, err
+	return suggestionsOf(ctx, s.Pool, versionID)
 }
 
 // ListPlans lists a client's plans (all clients when clientID is 0), most

@@ -15,10 +15,15 @@ import (
 )
 
 // Store is the application's handle on PostgreSQL.
-type Store struct{ Pool *pgxpool.Pool }
+type Store struct {
+	Pool *pgxpool.Pool
+	// frozen keeps decoded published versions (see FrozenVersionByID);
+	// nil (a Store made without New) caches nothing.
+	frozen *frozenCache
+}
 
 // New wraps a connection pool.
-func New(pool *pgxpool.Pool) *Store { return &Store{Pool: pool} }
+func New(pool *pgxpool.Pool) *Store { return &Store{Pool: pool, frozen: newFrozenCache()} }
 
 // ErrNotFound is returned when a row asked for by id does not exist (or does
 // not belong to the client named in the request).
