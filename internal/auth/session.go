@@ -1,6 +1,7 @@
 package auth
 
 import (
+	"context"
 	"net/http"
 	"time"
 
@@ -26,14 +27,28 @@ const (
 	// session signs nobody in once that row is gone.
 	KeySessionID = "session_id"
 	KeyFlash     = "flash"
+	// KeySeen is the last activity recorded in a signed-in session, in
+	// Unix seconds (see Touch).
+	KeySeen = "seen"
+)
+
+// Sessions end after IdleTimeout without a request: a clinic workstation
+// left signed in does not stay open.
+const (
+	IdleTimeout = 2 * time.Hour
+	// touchEvery is how stale the recorded activity may grow before a
+	// request records it anew: a session costs one write a minute at most,
+	// not one a request, and the idle limit is kept to within a minute.
+	touchEvery = time.Minute
 )
 
 // SessionLifetime is the longest a staff session lasts, however busy.
 const SessionLifetime = 12 * time.Hour
 
 // NewSessionManager returns a session manager storing sessions in the
-// sessions table of pool. Sessions last at most 12 hours and end after 2
-// idle hours: a clinic workstation left signed in does not stay open.
+// sessions table of pool. The idle limit is kept by Touch rather than by
+// the manager's own IdleTimeout, which rewrites the session row on every
+// request to move its expiry.
 func NewSessionManager(pool *pgxpool.Pool, opt SessionOptions) *scs.SessionManager {
 	m := scs.New()
 	switch {
@@ -45,7 +60,6 @@ func NewSessionManager(pool *pgxpool.Pool, opt SessionOptions) *scs.SessionManag
 		m.Store = pgxstore.NewWithCleanupInterval(pool, opt.CleanupInterval)
 	}
 	m.Lifetime = SessionLifetime
-	m.IdleTimeout = 2 * time.Hour
 	m.Cookie.Name = "larder_session"
 	m.Cookie.HttpOnly = true
 	m.Cookie.SameSite = http.SameSiteLaxMode
@@ -60,4 +74,20 @@ func StopCleanup(m *scs.SessionManager) {
 	if s, ok := m.Store.(*pgxstore.PostgresStore); ok {
 		s.StopCleanup()
 	}
+}
+
+// Touch keeps a signed-in session's idle limit at now. A session idle for
+// longer than IdleTimeout is destroyed and Touch reports false; otherwise
+// the activity is recorded when the recorded one is older than touchEvery
+// (or missing, as right after sign-in), and unchanged sessions are not
+// written back at all.
+func Touch(ctx context.Context, m *scs.SessionManager, now time.Time) (alive bool, err error) {
+	seen := m.GetInt64(ctx, KeySeen)
+	if seen != 0 && now.Sub(time.Unix(seen, 0)) > IdleTimeout {
+		return false, m.Destroy(ctx)
+	}
+	if seen == 0 || now.Sub(time.Unix(seen, 0)) >= touchEvery {
+		m.Put(ctx, KeySeen, now.Unix())
+	}
+	return true, nil
 }

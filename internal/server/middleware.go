@@ -73,15 +73,23 @@ func (s *Server) recoverPanics(next http.Handler) http.Handler {
 	})
 }
 
-// loadUser puts the signed-in user (if any) into the request context. The
-// user and the session's row are read from the database on every request,
-// so a disabled account, a changed role or an ended session takes effect at
-// once.
+// loadUser puts the signed-in user (if any) into the request context,
+// after keeping the session's idle limit (auth.Touch). The user and the
+// session's row are read from the database on every request, so a disabled
+// account, a changed role or an ended session takes effect at once.
 func (s *Server) loadUser(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		id := s.Sessions.GetInt64(r.Context(), auth.KeyUserID)
 		if id == 0 {
 			next.ServeHTTP(w, r)
+			return
+		}
+		switch alive, err := auth.Touch(r.Context(), s.Sessions, s.Now()); {
+		case err != nil:
+			s.ServerError(w, r, err)
+			return
+		case !alive:
+			next.ServeHTTP(w, r) // signed out by the idle limit
 			return
 		}
 		// The session's own row must still exist: a password change, a reset
