@@ -19,8 +19,8 @@ import (
 // version) marked across every page.
 
 func (s *Server) mountSheetRoutes(r chi.Router) {
-	r.Get("/clients/{clientID}/plans/{planID}/sheet.pdf", s.publishedSheet)
-	r.Get("/clients/{clientID}/plans/{planID}/versions/{version}/sheet.pdf", s.versionSheet)
+	r.With(s.recordRead(store.ReadSheet)).Get("/clients/{clientID}/plans/{planID}/sheet.pdf", s.publishedSheet)
+	r.With(s.recordRead(store.ReadSheet)).Get("/clients/{clientID}/plans/{planID}/versions/{version}/sheet.pdf", s.versionSheet)
 }
 
 func (s *Server) publishedSheet(w http.ResponseWriter, r *http.Request) {

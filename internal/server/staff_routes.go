@@ -1,6 +1,10 @@
 package server
 
-import "github.com/go-chi/chi/v5"
+import (
+	"github.com/go-chi/chi/v5"
+
+	"larder/internal/store"
+)
 
 // mountStaffRoutes adds the pages every signed-in staff member uses.
 func (s *Server) mountStaffRoutes(r chi.Router) {
@@ -13,7 +17,7 @@ func (s *Server) mountStaffRoutes(r chi.Router) {
 	r.Post("/clients", s.clientCreate)
 	// Flat patterns (no sub-router), so plan routes under the same prefix can be added beside them.
 	const c = "/clients/{clientID}"
-	r.Get(c, s.clientPage)
+	r.With(s.recordRead(store.ReadClient)).Get(c, s.clientPage)
 	r.Post(c, s.clientUpdate)
 	r.Get(c+"/edit", s.clientEditPage)
 	r.Post(c+"/archive", s.clientArchive)
@@ -41,6 +45,7 @@ func (s *Server) mountStaffRoutes(r chi.Router) {
 // mountAdminRoutes adds the pages only admins may open.
 func (s *Server) mountAdminRoutes(r chi.Router) {
 	r.Get("/team", s.teamPage)
+	r.Get("/team/reads", s.readsPage)
 	r.Post("/team", s.teamAdd)
 	r.Post("/team/practice", s.teamPractice)
 	r.Post("/team/{userID}/role", s.teamRole)

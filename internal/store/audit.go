@@ -65,7 +65,7 @@ func scanAudit(rows pgx.Rows) ([]AuditEntry, error) {
 // AuditFor lists the newest audit rows of one entity (e.g. "client", 12).
 func (s *Store) AuditFor(ctx context.Context, entity string, entityID int64, limit int) ([]AuditEntry, error) {
 	rows, err := s.Pool.Query(ctx, `SELECT `+auditCols+` FROM audit_log a LEFT JOIN users u ON u.id = a.user_id
-		WHERE a.entity = $1 AND a.entity_id = $2 ORDER BY a.at DESC, a.id DESC LIMIT $3`, entity, entityID, limit)
+		WHERE a.entity = $1 AND a.entity_id = $2 AND a.action <> 'view' ORDER BY a.at DESC, a.id DESC LIMIT $3`, entity, entityID, limit)
 	if err != nil {
 		return nil, err
 	}
@@ -73,10 +73,11 @@ func (s *Store) AuditFor(ctx context.Context, entity string, entityID int64, lim
 }
 
 // AuditForClient lists the newest audit rows about a client or any of its
-// records (body mass, training, events), which carry client_id in detail.
+// records (body mass, training, events), which carry client_id in detail;
+// reads are left out (ListReads lists those).
 func (s *Store) AuditForClient(ctx context.Context, clientID int64, limit int) ([]AuditEntry, error) {
 	rows, err := s.Pool.Query(ctx, `SELECT `+auditCols+` FROM audit_log a LEFT JOIN users u ON u.id = a.user_id
-		WHERE (a.entity = 'client' AND a.entity_id = $1) OR (a.detail->>'client_id')::bigint = $1
+		WHERE ((a.entity = 'client' AND a.entity_id = $1) OR (a.detail->>'client_id')::bigint = $1) AND a.action <> 'view'
 		ORDER BY a.at DESC, a.id DESC LIMIT $2`, clientID, limit)
 	if err != nil {
 		return nil, err
@@ -84,9 +85,11 @@ func (s *Store) AuditForClient(ctx context.Context, clientID int64, limit int) (
 	return scanAudit(rows)
 }
 
-// RecentAudit lists the newest audit rows of the whole practice.
+// RecentAudit lists the newest audit rows of the whole practice, reads
+// left out (ListReads lists those).
 func (s *Store) RecentAudit(ctx context.Context, limit int) ([]AuditEntry, error) {
 	rows, err := s.Pool.Query(ctx, `SELECT `+auditCols+` FROM audit_log a LEFT JOIN users u ON u.id = a.user_id
+		WHERE a.action <> 'view'
 		ORDER BY a.at DESC, a.id DESC LIMIT $1`, limit)
 	if err != nil {
 		return nil, err
