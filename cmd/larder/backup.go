@@ -2,14 +2,16 @@ package main
 
 import (
 	"context"
-	"errors"
 	"flag"
 	"fmt"
 	"io"
 	"os"
 	"os/exec"
 	"path/filepath"
+	"strings"
 	"time"
+
+	"filippo.io/age"
 
 	"larder/internal/pgcluster"
 )
@@ -33,15 +35,34 @@ func fileExists(p string) bool {
 	return err == nil && !fi.IsDir()
 }
 
-// runBackup writes the whole database — everything Larder keeps — to one
-// file in pg_dump's custom format.
+// notBackedUp are tables whose rows a backup leaves out (their structure is
+// kept): live sign-ins, whose tokens would let whoever holds the file in, and
+// restored would sign people back in; and recent failed sign-ins, which mean
+// nothing later.
+var notBackedUp = []string{"sessions", "staff_sessions", "signin_failures"}
+
+// runBackup writes the whole database — everything Larder keeps but live
+// sign-ins — to one file in pg_dump's custom format, readable only by its
+// owner (0600: it holds health data and password hashes), and, with
+// --recipient, encrypted with age so that only the holder of the matching
+// identity can read it.
 func runBackup(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("backup", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	dataDir := fs.String("data-dir", defaultDataDir(), "folder of the private PostgreSQL cluster when DATABASE_URL is not set (env LARDER_DATA_DIR)")
-	out := fs.String("out", "larder-"+time.Now().UTC().Format("20060102-150405")+".dump", "file to write")
+	out := fs.String("out", "larder-"+time.Now().UTC().Format("20060102-150405")+".dump", "file to write (created readable by you only)")
+	recipient := fs.String("recipient", "", "encrypt to this age public key (age1…), so the file is useless without its identity; restore with --identity")
 	if err := fs.Parse(args); err != nil {
 		return 2
+	}
+	var rcpt age.Recipient
+	if *recipient != "" {
+		r, err := age.ParseX25519Recipient(strings.TrimSpace(*recipient))
+		if err != nil {
+			fmt.Fprintln(stderr, "larder: backup: --recipient must be an age public key starting age1 (made with age-keygen):", err)
+			return 2
+		}
+		rcpt = r
 	}
 	if fileExists(*out) {
 		fmt.Fprintf(stderr, "larder: backup: %s exists already; choose another --out\n", *out)
@@ -59,68 +80,56 @@ func runBackup(ctx context.Context, args []string, stdout, stderr io.Writer) int
 		return 1
 	}
 	defer cleanup()
-	cmd := exec.CommandContext(ctx, dump, "--format=custom", "--no-owner", "--no-privileges", "--file", *out, "--dbname", dsn)
-	cmd.Stderr = stderr
-	if err := cmd.Run(); err != nil {
+
+	// Created here, not by pg_dump, so it is 0600 from its first byte
+	// whatever the umask, and never replaces an existing file.
+	f, err := os.OpenFile(*out, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o600)
+	if err != nil {
+		fmt.Fprintln(stderr, "larder: backup:", err)
+		return 1
+	}
+	if err := writeDump(ctx, dump, dsn, f, rcpt, stderr); err != nil {
+		f.Close()
+		os.Remove(*out)
+		fmt.Fprintln(stderr, "larder: backup failed:", err)
+		return 1
+	}
+	if err := f.Close(); err != nil {
 		os.Remove(*out)
 		fmt.Fprintln(stderr, "larder: backup failed:", err)
 		return 1
 	}
 	fi, _ := os.Stat(*out)
-	fmt.Fprintf(stdout, "Backup written to %s (%d bytes). Restore it with: larder restore --in %s --yes\n", *out, fi.Size(), *out)
+	how := "Restore it with: larder restore --in " + *out + " --yes"
+	if rcpt != nil {
+		how = "It is encrypted; restore it with: larder restore --in " + *out + " --identity KEYFILE --yes"
+	}
+	fmt.Fprintf(stdout, "Backup written to %s (%d bytes, readable by you only). %s\n", *out, fi.Size(), how)
 	return 0
 }
 
-// runRestore replaces the database's contents with a backup. It asks for
-// --yes because everything saved since the backup is lost.
-func runRestore(ctx context.Context, args []string, stdout, stderr io.Writer) int {
-	fs := flag.NewFlagSet("restore", flag.ContinueOnError)
-	fs.SetOutput(stderr)
-	dataDir := fs.String("data-dir", defaultDataDir(), "folder of the private PostgreSQL cluster when DATABASE_URL is not set (env LARDER_DATA_DIR)")
-	in := fs.String("in", "", "backup file written by larder backup")
-	yes := fs.Bool("yes", false, "confirm: replace everything in the database with the backup")
-	if err := fs.Parse(args); err != nil {
-		return 2
+// writeDump runs pg_dump into w, through age when rcpt is set.
+func writeDump(ctx context.Context, dump, dsn string, w io.Writer, rcpt age.Recipient, stderr io.Writer) error {
+	args := []string{"--format=custom", "--no-owner", "--no-privileges", "--dbname", dsn}
+	for _, t := range notBackedUp {
+		args = append(args, "--exclude-table-data="+t)
 	}
-	var problems []string
-	if *in == "" {
-		problems = append(problems, "--in names the backup file to restore")
-	} else if !fileExists(*in) {
-		problems = append(problems, fmt.Sprintf("--in: %s does not exist", *in))
-	}
-	if !*yes {
-		problems = append(problems, "--yes is needed: restoring replaces everything in the database, and whatever was saved after the backup is lost")
-	}
-	if len(problems) > 0 {
-		for _, p := range problems {
-			fmt.Fprintln(stderr, "larder: restore:", p)
+	var enc io.WriteCloser
+	if rcpt != nil {
+		var err error
+		if enc, err = age.Encrypt(w, rcpt); err != nil {
+			return err
 		}
-		return 2
+		w = enc
 	}
-	restore, err := pgTool("pg_restore")
-	if err != nil {
-		fmt.Fprintln(stderr, "larder: restore:", err)
-		return 1
-	}
-	log := newLogger(stderr)
-	dsn, cleanup, err := openDatabase(ctx, *dataDir, log)
-	if err != nil {
-		fmt.Fprintln(stderr, "larder:", err)
-		return 1
-	}
-	defer cleanup()
-	// One transaction: a failed restore leaves the database as it was.
-	cmd := exec.CommandContext(ctx, restore, "--clean", "--if-exists", "--no-owner", "--no-privileges", "--single-transaction", "--exit-on-error", "--dbname", dsn, *in)
+	cmd := exec.CommandContext(ctx, dump, args...)
+	cmd.Stdout = w
 	cmd.Stderr = stderr
 	if err := cmd.Run(); err != nil {
-		var ee *exec.ExitError
-		if errors.As(err, &ee) {
-			fmt.Fprintln(stderr, "larder: restore failed; the database is unchanged")
-		} else {
-			fmt.Fprintln(stderr, "larder: restore failed:", err)
-		}
-		return 1
+		return err
 	}
-	fmt.Fprintf(stdout, "Restored %s. Start the server again so sessions and caches begin afresh.\n", *in)
-	return 0
+	if enc != nil {
+		return enc.Close()
+	}
+	return nil
 }

@@ -3,6 +3,9 @@ package store
 import (
 	"context"
 	"fmt"
+	"io/fs"
+	"strconv"
+	"strings"
 
 	"github.com/jackc/pgx/v5/pgxpool"
 	"github.com/jackc/pgx/v5/stdlib"
@@ -31,4 +34,28 @@ func Migrate(ctx context.Context, pool *pgxpool.Pool) (int, error) {
 		return len(results), fmt.Errorf("migrate: %w", err)
 	}
 	return len(results), nil
+}
+
+// SchemaVersion is the newest migration this binary carries (the goose
+// version a database has once Migrate has run), read from the embedded
+// files' numbers.
+func SchemaVersion() (int64, error) {
+	entries, err := fs.ReadDir(migrations.FS, ".")
+	if err != nil {
+		return 0, err
+	}
+	var newest int64
+	for _, e := range entries {
+		name := e.Name()
+		if !strings.HasSuffix(name, ".sql") {
+			continue
+		}
+		num, _, _ := strings.Cut(name, "_")
+		v, err := strconv.ParseInt(num, 10, 64)
+		if err != nil {
+			return 0, fmt.Errorf("migration %s: no number", name)
+		}
+		newest = max(newest, v)
+	}
+	return newest, nil
 }
