@@ -84,7 +84,7 @@ func (s *Server) loadUser(next http.Handler) http.Handler {
 			next.ServeHTTP(w, r)
 			return
 		}
-		switch alive, err := auth.Touch(r.Context(), s.Sessions, s.Now()); {
+		switch alive, err := auth.Touch(r.Context(), s.Sessions, s.sessionNow()); {
 		case err != nil:
 			s.ServerError(w, r, err)
 			return

@@ -35,6 +35,9 @@ type Server struct {
 	Sessions *scs.SessionManager
 	Log      *slog.Logger
 	Now      func() time.Time
+	// sessionNow is the wall clock of session idle limits, kept apart from
+	// Now (which tests set to a plan's dates) like scs's own lifetimes.
+	sessionNow func() time.Time
 
 	// ClientPlansSection, when set (by mountPlanRoutes), renders the plans
 	// section of a client's page.
@@ -60,10 +63,11 @@ func New(cfg Config) *Server {
 		now = time.Now
 	}
 	s := &Server{
-		Store:    cfg.Store,
-		Sessions: auth.NewSessionManager(cfg.Store.Pool, auth.SessionOptions{Secure: cfg.SecureCookies, CleanupInterval: cfg.SessionCleanup}),
-		Log:      log,
-		Now:      now,
+		Store:      cfg.Store,
+		Sessions:   auth.NewSessionManager(cfg.Store.Pool, auth.SessionOptions{Secure: cfg.SecureCookies, CleanupInterval: cfg.SessionCleanup}),
+		Log:        log,
+		Now:        now,
+		sessionNow: time.Now,
 	}
 	s.handler = s.routes()
 	return s

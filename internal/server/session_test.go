@@ -20,6 +20,7 @@ func TestSessionNotRewrittenOnEveryRequest(t *testing.T) {
 	clock := testNow
 	st := store.New(testdb.Pool(t))
 	s := New(Config{Store: st, SessionCleanup: -1, Now: func() time.Time { return clock }})
+	s.sessionNow = func() time.Time { return clock }
 	a := &app{t: t, st: st}
 	a.srv = httptest.NewServer(s)
 	t.Cleanup(func() { a.srv.Close(); s.Close() })

@@ -34,7 +34,7 @@ func (s *Server) startSession(r *http.Request, u store.User) error {
 	}
 	s.Sessions.Put(r.Context(), auth.KeyUserID, u.ID)
 	s.Sessions.Put(r.Context(), auth.KeySessionID, sid)
-	s.Sessions.Put(r.Context(), auth.KeySeen, s.Now().Unix())
+	s.Sessions.Put(r.Context(), auth.KeySeen, s.sessionNow().Unix())
 	return nil
 }
 
