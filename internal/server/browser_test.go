@@ -21,6 +21,13 @@ const chromiumPath = "/usr/bin/chromium"
 // installed — unless LARDER_TEST_REQUIRE_BROWSER=1 (CI), where that fails.
 func browserCtx(t *testing.T) context.Context {
 	t.Helper()
+	return browserCtxFor(t, 90*time.Second)
+}
+
+// browserCtxFor is browserCtx with a time limit of the test's choosing, for
+// tests that visit many pages.
+func browserCtxFor(t *testing.T, limit time.Duration) context.Context {
+	t.Helper()
 	if _, err := exec.LookPath(chromiumPath); err != nil {
 		if os.Getenv("LARDER_TEST_REQUIRE_BROWSER") == "1" {
 			t.Fatalf("Chromium is required (LARDER_TEST_REQUIRE_BROWSER=1) but %s is missing: %v", chromiumPath, err)
@@ -37,7 +44,7 @@ func browserCtx(t *testing.T) context.Context {
 	)
 	actx, cancelAlloc := chromedp.NewExecAllocator(context.Background(), opts...)
 	ctx, cancelCtx := chromedp.NewContext(actx)
-	ctx, cancelTimeout := context.WithTimeout(ctx, 90*time.Second)
+	ctx, cancelTimeout := context.WithTimeout(ctx, limit)
 	t.Cleanup(func() { cancelTimeout(); cancelCtx(); cancelAlloc() })
 	return ctx
 }

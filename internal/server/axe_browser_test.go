@@ -1,0 +1,245 @@
+package server
+
+import (
+	"context"
+	"encoding/json"
+	"fmt"
+	"net/http/httptest"
+	"os"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/chromedp/chromedp"
+
+	"larder/internal/auth"
+	"larder/internal/store"
+	"larder/internal/testdb"
+)
+
+// axeTags are the rule sets run on every page: WCAG 2.0, 2.1 and 2.2 at
+// levels A and AA, as axe-core tags them.
+var axeTags = []string{"wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22a", "wcag22aa"}
+
+// axeReport is the part of axe.run's result the test reads.
+type axeReport struct {
+	Violations []struct {
+		ID     string `json:"id"`
+		Impact string `json:"impact"`
+		Help   string `json:"help"`
+		Nodes  []struct {
+			Target  []any  `json:"target"`
+			HTML    string `json:"html"`
+			Summary string `json:"failureSummary"`
+		} `json:"nodes"`
+	} `json:"violations"`
+	Passes int    `json:"passes"`
+	URL    string `json:"url"`
+}
+
+// axeSource is axe-core's browser build (see testdata/axe/README.md for
+// its version, origin and licence).
+func axeSource(t *testing.T) string {
+	t.Helper()
+	b, err := os.ReadFile("testdata/axe/axe.min.js")
+	if err != nil {
+		t.Fatalf("axe-core: %v", err)
+	}
+	return string(b)
+}
+
+// axeCheck runs axe-core in the page the browser shows now and fails the
+// test for every violation, naming the page, the rule and the elements.
+func axeCheck(t *testing.T, ctx context.Context, src, page string) {
+	t.Helper()
+	start := time.Now()
+	defer func() { t.Logf("%s: axe-core took %v", page, time.Since(start).Round(time.Millisecond)) }()
+	if _, err := chromedp.Run(ctx, chromedp.Evaluate[bool](src+"\n;typeof axe === 'object'")); err != nil {
+		t.Fatalf("%s: load axe-core: %v", page, err)
+	}
+	tags, _ := json.Marshal(axeTags)
+	js := fmt.Sprintf(`axe.run(document, {runOnly: {type: 'tag', values: %s}, resultTypes: ['violations']})
+		.then(r => JSON.stringify({violations: r.violations, passes: r.passes.length, url: r.url}))`, tags)
+	out, err := chromedp.Run(ctx, chromedp.Evaluate[string](js, chromedp.EvalAwaitPromise))
+	if err != nil {
+		t.Fatalf("%s: axe.run: %v", page, err)
+	}
+	var rep axeReport
+	if err := json.Unmarshal([]byte(out), &rep); err != nil {
+		t.Fatalf("%s: axe result: %v", page, err)
+	}
+	// A run that checked nothing would pass anything: every page has at
+	// least a language, a title and landmarks for the rules to pass on.
+	if rep.Passes == 0 {
+		t.Errorf("%s (%s): axe-core passed no rule at all; it did not run on the page", page, rep.URL)
+	}
+	for _, v := range rep.Violations {
+		var where []string
+		for i, n := range v.Nodes {
+			if i == 5 {
+				where = append(where, fmt.Sprintf("… and %d more", len(v.Nodes)-5))
+				break
+			}
+			html := n.HTML
+			if len(html) > 160 {
+				html = html[:160] + "…"
+			}
+			where = append(where, fmt.Sprintf("%v %s\n        %s", n.Target, html, strings.ReplaceAll(n.Summary, "\n", " ")))
+		}
+		t.Errorf("%s (%s): %s [%s, %s]\n      %s", page, rep.URL, v.Help, v.ID, v.Impact, strings.Join(where, "\n      "))
+	}
+}
+
+// axeVisit opens a page and checks it.
+func axeVisit(t *testing.T, ctx context.Context, src, page, url string) {
+	t.Helper()
+	if err := chromedp.Do(ctx, chromedp.Navigate(url), chromedp.WaitReady(chromedp.CSS("body"))); err != nil {
+		t.Fatalf("%s: open %s: %v", page, url, err)
+	}
+	axeCheck(t, ctx, src, page)
+}
+
+// firstHref is the address of the first link matching a CSS selector on
+// the page shown now.
+func firstHref(t *testing.T, ctx context.Context, sel string) string {
+	t.Helper()
+	href, err := chromedp.Run(ctx, chromedp.Evaluate[string](fmt.Sprintf(`(document.querySelector(%q) || {}).href || ""`, sel)))
+	if err != nil || href == "" {
+		t.Fatalf("no link %s on %s: %v", sel, pageURL(ctx), err)
+	}
+	return href
+}
+
+func pageURL(ctx context.Context) string {
+	u, _ := chromedp.Run(ctx, chromedp.Evaluate[string](`location.href`))
+	return u
+}
+
+// submitUnchecked submits a form as it stands with the browser's own
+// checks turned off, so the server's messages beside the fields show.
+func submitUnchecked(t *testing.T, ctx context.Context, page, form string) {
+	t.Helper()
+	js := fmt.Sprintf(`(() => { const f = document.querySelector(%q); f.noValidate = true;
+		for (const e of f.querySelectorAll('input:not([type=hidden]):not([type=checkbox]):not([type=radio])')) { if (e.type !== 'submit') e.value = ''; }
+		f.requestSubmit(); return true })()`, form)
+	if _, err := chromedp.Run(ctx, chromedp.Evaluate[bool](js)); err != nil {
+		t.Fatalf("%s: submit %s: %v", page, form, err)
+	}
+	if err := chromedp.Do(ctx, chromedp.WaitVisible(chromedp.CSS(".field-error"))); err != nil {
+		t.Fatalf("%s: no message beside a field after submitting %s empty (%s): %v", page, form, pageURL(ctx), err)
+	}
+}
+
+// TestBrowserAxeEveryPage runs axe-core's WCAG 2.x A/AA rules in Chromium on
+// every page of the app: the public ones (sign-in, first-run setup, the
+// client's phone page and its refusal, not found), and every staff page with
+// the demo practice loaded, including forms showing their error messages.
+func TestBrowserAxeEveryPage(t *testing.T) {
+	ctx := browserCtxFor(t, 10*time.Minute)
+	src := axeSource(t)
+	a := newApp(t)
+	res := loadDemo(t, a)
+	bg := context.Background()
+	marathoner := res.IDs.Clients["marathoner"]
+	clientURL := a.srv.URL + "/clients/" + itoa64(marathoner)
+
+	// The first-run page exists only while no one has an account: a server
+	// on an empty database of its own.
+	pool, _ := testdb.Empty(t)
+	if _, err := store.Migrate(bg, pool); err != nil {
+		t.Fatal(err)
+	}
+	fresh := New(Config{Store: store.New(pool), SessionCleanup: -1, Now: func() time.Time { return testNow }})
+	freshSrv := httptest.NewServer(fresh)
+	defer func() { freshSrv.Close(); fresh.Close() }()
+	axeVisit(t, ctx, src, "first-run setup", freshSrv.URL+"/setup")
+	submitUnchecked(t, ctx, "first-run setup with errors", "form")
+	axeCheck(t, ctx, src, "first-run setup with errors")
+
+	// The client's side, at phone width.
+	token, hash, err := auth.NewLinkToken()
+	if err != nil {
+		t.Fatal(err)
+	}
+	link := store.ClientLink{ClientID: marathoner, TokenHash: hash, Label: unique("axe"), ExpiresAt: testNow.AddDate(0, 3, 0)}
+	if err := a.st.CreateClientLink(bg, store.System, &link); err != nil {
+		t.Fatal(err)
+	}
+	if err := chromedp.Do(ctx, chromedp.EmulateViewport(390, 844)); err != nil {
+		t.Fatal(err)
+	}
+	axeVisit(t, ctx, src, "client's phone page", a.srv.URL+"/c/"+token)
+	axeVisit(t, ctx, src, "client link no longer valid", a.srv.URL+"/c/"+strings.Repeat("A", 43))
+	if err := chromedp.Do(ctx, chromedp.EmulateViewport(1280, 1000)); err != nil {
+		t.Fatal(err)
+	}
+
+	axeVisit(t, ctx, src, "sign-in", a.srv.URL+"/signin")
+	submitUnchecked(t, ctx, "sign-in refused", "form")
+	axeCheck(t, ctx, src, "sign-in refused")
+	axeVisit(t, ctx, src, "not found (signed out)", a.srv.URL+"/no-such-page")
+
+	err = chromedp.Do(ctx,
+		chromedp.Navigate(a.srv.URL+"/signin"),
+		chromedp.WaitVisible(chromedp.ID("f-email")),
+		chromedp.SendKeys(chromedp.ID("f-email"), res.Email),
+		chromedp.SendKeys(chromedp.ID("f-password"), res.Password),
+		chromedp.Submit(chromedp.ID("f-password")),
+		chromedp.WaitVisible(chromedp.CSS(`nav[aria-label="Main"]`)),
+	)
+	if err != nil {
+		t.Fatalf("sign in: %v", err)
+	}
+
+	for _, p := range []struct{ name, path string }{
+		{"clients", "/clients"},
+		{"new client", "/clients/new"},
+		{"foods", "/foods"},
+		{"new food", "/foods/new"},
+		{"team", "/team"},
+		{"account", "/account"},
+		{"not found (signed in)", "/clients/999999999"},
+	} {
+		axeVisit(t, ctx, src, p.name, a.srv.URL+p.path)
+	}
+	axeVisit(t, ctx, src, "new client", a.srv.URL+"/clients/new")
+	submitUnchecked(t, ctx, "new client with errors", "main form")
+	axeCheck(t, ctx, src, "new client with errors")
+
+	axeVisit(t, ctx, src, "foods", a.srv.URL+"/foods")
+	axeVisit(t, ctx, src, "edit food", firstHref(t, ctx, `a[href$="/edit"][href*="/foods/"]`))
+
+	axeVisit(t, ctx, src, "client", clientURL)
+	massEdit := firstHref(t, ctx, `a[href*="/body-mass/"][href$="/edit"]`)
+	trainingEdit := firstHref(t, ctx, `a[href*="/training/"][href$="/edit"]`)
+	eventEdit := firstHref(t, ctx, `a[href*="/events/"][href$="/edit"]`)
+	planPage := firstHref(t, ctx, `a[href*="/plans/"]:not([href$="/new"]):not([href*="/plans/new"])`)
+	for _, p := range []struct{ name, url string }{
+		{"edit client", clientURL + "/edit"},
+		{"new body mass", clientURL + "/body-mass/new"},
+		{"edit body mass", massEdit},
+		{"new training session", clientURL + "/training/new"},
+		{"edit training session", trainingEdit},
+		{"new event", clientURL + "/events/new"},
+		{"edit event", eventEdit},
+		{"new plan", clientURL + "/plans/new"},
+		{"plan (published)", planPage},
+	} {
+		axeVisit(t, ctx, src, p.name, p.url)
+	}
+	axeVisit(t, ctx, src, "new body mass", clientURL+"/body-mass/new")
+	submitUnchecked(t, ctx, "new body mass with errors", "main form")
+	axeCheck(t, ctx, src, "new body mass with errors")
+
+	// A draft: the page with the dietitian's override inputs.
+	if err := chromedp.Do(ctx, chromedp.Navigate(planPage), chromedp.WaitReady(chromedp.CSS("body"))); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := chromedp.Run(ctx, chromedp.Evaluate[bool](`(() => { const f = document.querySelector('form[action$="/revise"]'); if (!f) return false; f.requestSubmit(); return true })()`)); err != nil {
+		t.Fatalf("start a new version: %v", err)
+	}
+	if err := chromedp.Do(ctx, chromedp.WaitVisible(chromedp.ID("plan-edit"))); err != nil {
+		t.Fatalf("the new draft shows no edit form (%s): %v", pageURL(ctx), err)
+	}
+	axeCheck(t, ctx, src, "plan draft")
+}
