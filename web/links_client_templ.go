@@ -104,7 +104,7 @@ func clientShell(title string) templ.Component {
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 2, "</title><style>\n\t\t\t\t:root { --ink: #1d232a; --muted: #59636e; --rule: #d5dbe1; --accent: #1f5f8b; --soft: #eef4f8; --caution: #8a4b00; --caution-soft: #fff6e8; }\n\t\t\t\t* { box-sizing: border-box; }\n\t\t\t\thtml { -webkit-text-size-adjust: 100%; }\n\t\t\t\tbody { margin: 0; font: 1.125rem/1.5 system-ui, -apple-system, \"Segoe UI\", Roboto, sans-serif; color: var(--ink); background: #fff; }\n\t\t\t\tmain { max-width: 34rem; margin: 0 auto; padding: 1rem 1rem 2.5rem; }\n\t\t\t\th1 { font-size: 1.75rem; line-height: 1.2; margin: .25rem 0 .25rem; }\n\t\t\t\th2 { font-size: 1.3rem; margin: 1.75rem 0 .5rem; }\n\t\t\t\t.date { font-size: 1.15rem; margin: 0 0 .25rem; }\n\t\t\t\t.muted { color: var(--muted); font-size: 1rem; }\n\t\t\t\t.practice { color: var(--muted); font-size: .95rem; margin: 0; }\n\t\t\t\t.role { display: inline-block; background: var(--soft); color: var(--accent); border-radius: .3rem; padding: .1rem .55rem; font-weight: 600; font-size: 1rem; }\n\t\t\t\t.targets { display: grid; grid-template-columns: 1fr 1fr; gap: .6rem; margin: .75rem 0; padding: 0; list-style: none; }\n\t\t\t\t.targets li { border: 1px solid var(--rule); border-radius: .5rem; padding: .6rem .75rem; }\n\t\t\t\t.targets li.main { grid-column: 1 / -1; border: 2px solid var(--accent); }\n\t\t\t\t.targets .what { display: block; font-size: .95rem; color: var(--muted); }\n\t\t\t\t.targets .value { display: block; font-size: 1.6rem; font-weight: 700; line-height: 1.2; }\n\t\t\t\t.targets li.main .value { font-size: 2.2rem; }\n\t\t\t\t.targets .per { display: block; font-size: 1rem; font-weight: 400; color: var(--muted); }\n\t\t\t\tol.feeds { list-style: none; margin: 0; padding: 0; }\n\t\t\t\tol.feeds li { border-top: 1px solid var(--rule); padding: .7rem 0; }\n\t\t\t\tol.feeds li.event { background: var(--soft); border-radius: .4rem; padding: .7rem .6rem; }\n\t\t\t\t.feed-head { display: flex; gap: .75rem; align-items: baseline; flex-wrap: wrap; }\n\t\t\t\t.time { font-size: 1.45rem; font-weight: 700; font-variant-numeric: tabular-nums; min-width: 4ch; }\n\t\t\t\t.label { font-weight: 600; }\n\t\t\t\t.grams { display: block; font-size: 1.2rem; }\n\t\t\t\t.sugg { display: block; color: var(--muted); font-size: 1rem; }\n\t\t\t\t.event-box { border: 2px solid var(--accent); border-radius: .5rem; padding: .75rem; margin: 1rem 0; }\n\t\t\t\t.event-box p { margin: .3rem 0; }\n\t\t\t\t.big { font-size: 1.4rem; font-weight: 700; }\n\t\t\t\tul.next { list-style: none; padding: 0; margin: 0; }\n\t\t\t\tul.next li { display: flex; justify-content: space-between; align-items: baseline; gap: .75rem; border-top: 1px solid var(--rule); padding: .5rem 0; }\n\t\t\t\tul.next .d { font-weight: 600; }\n\t\t\t\tul.next .r { display: block; color: var(--muted); font-size: 1rem; }\n\t\t\t\tul.next .n { font-weight: 600; white-space: nowrap; text-align: right; }\n\t\t\t\tul.next .n .muted { display: block; font-weight: 400; }\n\t\t\t\t.note { background: var(--caution-soft); border: 1px solid var(--caution); border-left-width: 6px; border-radius: .3rem; padding: .6rem .8rem; margin: 1rem 0; font-size: 1rem; }\n\t\t\t\t.note strong { display: block; }\n\t\t\t\t.safety { font-size: .95rem; color: var(--muted); border-top: 1px solid var(--rule); margin-top: 2rem; padding-top: .75rem; }\n\t\t\t\ta { color: var(--accent); }\n\t\t\t\t.nothing { font-size: 1.35rem; font-weight: 600; margin: 1rem 0 .25rem; }\n\t\t\t</style></head><body><main>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 2, "</title><link rel=\"stylesheet\" href=\"/static/client.css\"></head><body><main>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
@@ -158,7 +158,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var5 string
 				templ_7745c5c3_Var5, templ_7745c5c3_Err = templ.JoinStringErrs(v.PracticeName)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 131, Col: 39}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 90, Col: 39}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var5))
 				if templ_7745c5c3_Err != nil {
@@ -176,7 +176,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 			var templ_7745c5c3_Var6 string
 			templ_7745c5c3_Var6, templ_7745c5c3_Err = templ.JoinStringErrs(v.FirstName)
 			if templ_7745c5c3_Err != nil {
-				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 133, Col: 25}
+				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 92, Col: 25}
 			}
 			_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var6))
 			if templ_7745c5c3_Err != nil {
@@ -189,7 +189,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 			var templ_7745c5c3_Var7 string
 			templ_7745c5c3_Var7, templ_7745c5c3_Err = templ.JoinStringErrs(v.DateLabel)
 			if templ_7745c5c3_Err != nil {
-				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 134, Col: 31}
+				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 93, Col: 31}
 			}
 			_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var7))
 			if templ_7745c5c3_Err != nil {
@@ -207,7 +207,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var8 string
 				templ_7745c5c3_Var8, templ_7745c5c3_Err = templ.JoinStringErrs(v.ZoneLabel)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 136, Col: 46}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 95, Col: 46}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var8))
 				if templ_7745c5c3_Err != nil {
@@ -226,7 +226,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var9 string
 				templ_7745c5c3_Var9, templ_7745c5c3_Err = templ.JoinStringErrs(c)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 140, Col: 60}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 99, Col: 60}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var9))
 				if templ_7745c5c3_Err != nil {
@@ -249,7 +249,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var10 string
 				templ_7745c5c3_Var10, templ_7745c5c3_Err = templ.JoinStringErrs(t.Role)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 145, Col: 33}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 104, Col: 33}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var10))
 				if templ_7745c5c3_Err != nil {
@@ -262,7 +262,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var11 string
 				templ_7745c5c3_Var11, templ_7745c5c3_Err = templ.JoinStringErrs(t.ChoG)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 150, Col: 33}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 109, Col: 33}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var11))
 				if templ_7745c5c3_Err != nil {
@@ -275,7 +275,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var12 string
 				templ_7745c5c3_Var12, templ_7745c5c3_Err = templ.JoinStringErrs(t.ChoGPerKg)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 151, Col: 36}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 110, Col: 36}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var12))
 				if templ_7745c5c3_Err != nil {
@@ -288,7 +288,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var13 string
 				templ_7745c5c3_Var13, templ_7745c5c3_Err = templ.JoinStringErrs(t.ProteinG)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 153, Col: 73}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 112, Col: 73}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var13))
 				if templ_7745c5c3_Err != nil {
@@ -301,7 +301,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var14 string
 				templ_7745c5c3_Var14, templ_7745c5c3_Err = templ.JoinStringErrs(t.FatG)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 154, Col: 65}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 113, Col: 65}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var14))
 				if templ_7745c5c3_Err != nil {
@@ -314,7 +314,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var15 string
 				templ_7745c5c3_Var15, templ_7745c5c3_Err = templ.JoinStringErrs(t.EnergyKcal)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 155, Col: 74}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 114, Col: 74}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var15))
 				if templ_7745c5c3_Err != nil {
@@ -338,7 +338,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var16 string
 					templ_7745c5c3_Var16, templ_7745c5c3_Err = templ.JoinStringErrs(a)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 161, Col: 10}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 120, Col: 10}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var16))
 					if templ_7745c5c3_Err != nil {
@@ -361,7 +361,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var17 string
 					templ_7745c5c3_Var17, templ_7745c5c3_Err = templ.JoinStringErrs(e.Name)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 165, Col: 28}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 124, Col: 28}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var17))
 					if templ_7745c5c3_Err != nil {
@@ -374,7 +374,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var18 string
 					templ_7745c5c3_Var18, templ_7745c5c3_Err = templ.JoinStringErrs(e.Start)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 165, Col: 47}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 124, Col: 47}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var18))
 					if templ_7745c5c3_Err != nil {
@@ -392,7 +392,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var19 string
 						templ_7745c5c3_Var19, templ_7745c5c3_Err = templ.JoinStringErrs(e.PreMealTime)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 167, Col: 50}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 126, Col: 50}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var19))
 						if templ_7745c5c3_Err != nil {
@@ -405,7 +405,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var20 string
 						templ_7745c5c3_Var20, templ_7745c5c3_Err = templ.JoinStringErrs(e.PreMealChoG)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 167, Col: 78}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 126, Col: 78}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var20))
 						if templ_7745c5c3_Err != nil {
@@ -424,7 +424,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var21 string
 						templ_7745c5c3_Var21, templ_7745c5c3_Err = templ.JoinStringErrs(e.DuringGPerH)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 170, Col: 50}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 129, Col: 50}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var21))
 						if templ_7745c5c3_Err != nil {
@@ -437,7 +437,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var22 string
 						templ_7745c5c3_Var22, templ_7745c5c3_Err = templ.JoinStringErrs(e.DuringTotalG)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 170, Col: 103}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 129, Col: 103}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var22))
 						if templ_7745c5c3_Err != nil {
@@ -450,7 +450,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var23 string
 						templ_7745c5c3_Var23, templ_7745c5c3_Err = templ.JoinStringErrs(e.DuringHours)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 170, Col: 128}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 129, Col: 128}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var23))
 						if templ_7745c5c3_Err != nil {
@@ -515,7 +515,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 							var templ_7745c5c3_Var26 string
 							templ_7745c5c3_Var26, templ_7745c5c3_Err = templruntime.NewAttributeExpression(f.Key).Resolve(ctx)
 							if templ_7745c5c3_Err != nil {
-								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 181, Col: 64}
+								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 140, Col: 64}
 							}
 							_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ_7745c5c3_Var26)
 							if templ_7745c5c3_Err != nil {
@@ -542,7 +542,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var27 string
 						templ_7745c5c3_Var27, templ_7745c5c3_Err = templ.JoinStringErrs(f.Time)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 183, Col: 35}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 142, Col: 35}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var27))
 						if templ_7745c5c3_Err != nil {
@@ -555,7 +555,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var28 string
 						templ_7745c5c3_Var28, templ_7745c5c3_Err = templ.JoinStringErrs(f.Label)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 184, Col: 37}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 143, Col: 37}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var28))
 						if templ_7745c5c3_Err != nil {
@@ -568,7 +568,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 						var templ_7745c5c3_Var29 string
 						templ_7745c5c3_Var29, templ_7745c5c3_Err = templ.JoinStringErrs(f.ChoG)
 						if templ_7745c5c3_Err != nil {
-							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 187, Col: 16}
+							return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 146, Col: 16}
 						}
 						_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var29))
 						if templ_7745c5c3_Err != nil {
@@ -586,7 +586,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 							var templ_7745c5c3_Var30 string
 							templ_7745c5c3_Var30, templ_7745c5c3_Err = templ.JoinStringErrs(f.ProteinG)
 							if templ_7745c5c3_Err != nil {
-								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 189, Col: 24}
+								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 148, Col: 24}
 							}
 							_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var30))
 							if templ_7745c5c3_Err != nil {
@@ -609,7 +609,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 							var templ_7745c5c3_Var31 string
 							templ_7745c5c3_Var31, templ_7745c5c3_Err = templ.JoinStringErrs(f.Suggestion)
 							if templ_7745c5c3_Err != nil {
-								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 193, Col: 54}
+								return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 152, Col: 54}
 							}
 							_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var31))
 							if templ_7745c5c3_Err != nil {
@@ -643,7 +643,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var32 string
 					templ_7745c5c3_Var32, templ_7745c5c3_Err = templ.JoinStringErrs(v.Upcoming)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 202, Col: 19}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 161, Col: 19}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var32))
 					if templ_7745c5c3_Err != nil {
@@ -677,7 +677,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var33 string
 					templ_7745c5c3_Var33, templ_7745c5c3_Err = templ.JoinStringErrs(d.DateLabel)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 213, Col: 36}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 172, Col: 36}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var33))
 					if templ_7745c5c3_Err != nil {
@@ -690,7 +690,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var34 string
 					templ_7745c5c3_Var34, templ_7745c5c3_Err = templ.JoinStringErrs(d.Role)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 214, Col: 31}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 173, Col: 31}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var34))
 					if templ_7745c5c3_Err != nil {
@@ -703,7 +703,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var35 string
 					templ_7745c5c3_Var35, templ_7745c5c3_Err = templ.JoinStringErrs(d.ChoG)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 216, Col: 30}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 175, Col: 30}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var35))
 					if templ_7745c5c3_Err != nil {
@@ -716,7 +716,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 					var templ_7745c5c3_Var36 string
 					templ_7745c5c3_Var36, templ_7745c5c3_Err = templ.JoinStringErrs(d.ChoGPerKg)
 					if templ_7745c5c3_Err != nil {
-						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 216, Col: 81}
+						return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 175, Col: 81}
 					}
 					_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var36))
 					if templ_7745c5c3_Err != nil {
@@ -744,7 +744,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 				var templ_7745c5c3_Var37 string
 				templ_7745c5c3_Var37, templ_7745c5c3_Err = templruntime.NewAttributeExpression(templ.SafeURL(v.CalendarURL)).ResolveURL(ctx)
 				if templ_7745c5c3_Err != nil {
-					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 222, Col: 44}
+					return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 181, Col: 44}
 				}
 				_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ_7745c5c3_Var37)
 				if templ_7745c5c3_Err != nil {
@@ -762,7 +762,7 @@ func ClientDayPage(v ClientDayView) templ.Component {
 			var templ_7745c5c3_Var38 string
 			templ_7745c5c3_Var38, templ_7745c5c3_Err = templ.JoinStringErrs(v.Caution)
 			if templ_7745c5c3_Err != nil {
-				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 224, Col: 73}
+				return templ.Error{Err: templ_7745c5c3_Err, FileName: `web/links_client.templ`, Line: 183, Col: 73}
 			}
 			_, templ_7745c5c3_Err = templ_7745c5c3_Buffer.WriteString(templ.EscapeString(templ_7745c5c3_Var38))
 			if templ_7745c5c3_Err != nil {

@@ -94,7 +94,7 @@ func TestServeAnswersAndShutsDown(t *testing.T) {
 	}
 	body, _ := io.ReadAll(res.Body)
 	res.Body.Close()
-	if res.StatusCode != http.StatusOK || !strings.Contains(string(body), `"database":"ok"`) {
+	if res.StatusCode != http.StatusOK || !strings.Contains(string(body), `"status":"ok"`) {
 		t.Fatalf("healthz: %d %s", res.StatusCode, body)
 	}
 	cancel() // what SIGINT/SIGTERM do through main's context

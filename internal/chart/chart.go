@@ -329,7 +329,7 @@ func render(p *plot.Plot) ([]byte, error) {
 	if _, err := c.WriteTo(&buf); err != nil {
 		return nil, err
 	}
-	return buf.Bytes(), nil
+	return presentationAttrs(buf.Bytes()), nil
 }
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }

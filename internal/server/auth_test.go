@@ -262,7 +262,7 @@ func TestHealthz(t *testing.T) {
 		t.Fatalf("healthz: %d %s", res.status, res.body)
 	}
 	var body map[string]any
-	if err := json.Unmarshal([]byte(res.body), &body); err != nil || body["database"] != "ok" {
+	if err := json.Unmarshal([]byte(res.body), &body); err != nil || body["status"] != "ok" {
 		t.Fatalf("healthz body %q: %v", res.body, err)
 	}
 
@@ -279,7 +279,7 @@ func TestHealthz(t *testing.T) {
 	if rec.Code != http.StatusServiceUnavailable {
 		t.Fatalf("healthz with closed pool: %d", rec.Code)
 	}
-	if err := json.Unmarshal(rec.Body.Bytes(), &body); err != nil || body["database"] != "unreachable" {
+	if err := json.Unmarshal(rec.Body.Bytes(), &body); err != nil || body["status"] != "unavailable" {
 		t.Fatalf("healthz body %q: %v", rec.Body.String(), err)
 	}
 }

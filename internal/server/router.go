@@ -12,15 +12,15 @@ import (
 
 func (s *Server) routes() http.Handler {
 	r := chi.NewRouter()
-	r.Use(middleware.RequestID, s.logRequests, s.recoverPanics, securityHeaders)
+	r.Use(middleware.RequestID, s.logRequests, s.recoverPanics, securityHeaders(s.secureCookies))
 	// Cross-site POSTs are refused by the browser's own Sec-Fetch-Site and
 	// Origin headers (net/http CrossOriginProtection), so forms need no token.
 	r.Use(http.NewCrossOriginProtection().Handler)
 
 	static, _ := fs.Sub(web.Static, "static")
-	r.Handle("/static/*", http.StripPrefix("/static/", http.FileServerFS(static)))
-	r.Get("/healthz", s.healthz)
-	r.Head("/healthz", s.healthz)
+	r.Handle("/static/*", http.StripPrefix("/static/", noListing(static, http.FileServerFS(static))))
+	r.With(s.Sessions.LoadAndSave, s.loadUser).Get("/healthz", s.healthz)
+	r.With(s.Sessions.LoadAndSave, s.loadUser).Head("/healthz", s.healthz)
 	s.mountClientLinkRoutes(r) // public: the token in the URL is the only key
 	r.NotFound(s.Sessions.LoadAndSave(s.loadUser(http.HandlerFunc(s.NotFound))).ServeHTTP)
 	r.MethodNotAllowed(s.Sessions.LoadAndSave(s.loadUser(http.HandlerFunc(s.MethodNotAllowed))).ServeHTTP)

@@ -49,7 +49,8 @@ type Server struct {
 	// links section of a client's page.
 	ClientLinkSection func(r *http.Request, c store.Client) (templ.Component, error)
 
-	handler http.Handler
+	secureCookies bool // served behind TLS: also send HSTS
+	handler       http.Handler
 }
 
 // New builds the server and its routes.
@@ -68,6 +69,8 @@ func New(cfg Config) *Server {
 		Log:        log,
 		Now:        now,
 		sessionNow: time.Now,
+
+		secureCookies: cfg.SecureCookies,
 	}
 	s.handler = s.routes()
 	return s
