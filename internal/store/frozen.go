@@ -2,9 +2,13 @@ package store
 
 import (
 	"context"
+	"encoding/json"
 	"fmt"
+	"maps"
+	"strings"
 
 	lru "github.com/hashicorp/golang-lru/v2"
+	"github.com/jackc/pgx/v5"
 )
 
 // A published or superseded plan version never changes again: the
@@ -60,4 +64,106 @@ func (s *Store) FrozenVersionByID(ctx context.Context, id int64) (*FrozenVersion
 		s.frozen.Add(id, fv)
 	}
 	return fv, nil
+}
+
+// versionListCols are versionCols with the request and result read only
+// for drafts: a frozen version's content comes from FrozenVersionByID, so
+// listing a plan's versions sends and decodes each one's JSON once per
+// app server instead of on every page view.
+var versionListCols = strings.Replace(versionCols, "v.request, v.result,",
+	"CASE WHEN v.status = 'draft' THEN v.request END, CASE WHEN v.status = 'draft' THEN v.result END,", 1)
+
+// scanListedVersion scans a row of versionListCols; the status, names and
+// times are the row's own (they may move), the content the cache's.
+func (s *Store) scanListedVersion(ctx context.Context, row pgx.Row) (PlanVersion, error) {
+	var v PlanVersion
+	var req, res []byte
+	err := row.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
+		&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt)
+	if err != nil {
+		return v, notFound(err)
+	}
+	if v.Status == PlanDraft {
+		return v, decodeContent(&v, req, res)
+	}
+	fv, err := s.FrozenVersionByID(ctx, v.ID)
+	if err != nil {
+		return v, err
+	}
+	v.Request, v.Result = fv.Version.Request, fv.Version.Result
+	return v, nil
+}
+
+// PlanVersions lists a plan's versions, newest first. The content of
+// published and superseded versions is shared with the cache: read it only.
+func (s *Store) PlanVersions(ctx context.Context, planID int64) ([]PlanVersion, error) {
+	rows, err := s.Pool.Query(ctx, `SELECT `+versionListCols+versionFrom+`WHERE v.plan_id = $1 ORDER BY v.version DESC`, planID)
+	if err != nil {
+		return nil, err
+	}
+	// Collect first: a cache miss queries again, which a pool connection
+	// still busy with these rows cannot do.
+	var out []PlanVersion
+	var frozen []int
+	for rows.Next() {
+		var v PlanVersion
+		var req, res []byte
+		if err := rows.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
+			&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt); err != nil {
+			rows.Close()
+			return nil, err
+		}
+		if v.Status == PlanDraft {
+			if err := decodeContent(&v, req, res); err != nil {
+				rows.Close()
+				return nil, err
+			}
+		} else {
+			frozen = append(frozen, len(out))
+		}
+		out = append(out, v)
+	}
+	if err := rows.Err(); err != nil {
+		return nil, err
+	}
+	for _, i := range frozen {
+		fv, err := s.FrozenVersionByID(ctx, out[i].ID)
+		if err != nil {
+			return nil, err
+		}
+		out[i].Request, out[i].Result = fv.Version.Request, fv.Version.Result
+	}
+	return out, nil
+}
+
+// PlanVersion loads version number `number` of a plan.
+func (s *Store) PlanVersion(ctx context.Context, planID int64, number int) (PlanVersion, error) {
+	return s.scanListedVersion(ctx, s.Pool.QueryRow(ctx, `SELECT `+versionListCols+versionFrom+`WHERE v.plan_id = $1 AND v.version = $2`, planID, number))
+}
+
+// PublishedPlanVersion loads the published version of a plan, or ErrNotFound.
+func (s *Store) PublishedPlanVersion(ctx context.Context, planID int64) (PlanVersion, error) {
+	return s.scanListedVersion(ctx, s.Pool.QueryRow(ctx, `SELECT `+versionListCols+versionFrom+`WHERE v.plan_id = $1 AND v.status = 'published'`, planID))
+}
+
+// FeedSuggestions returns the stored food suggestions of a version, by
+// FeedKey: a frozen version's from the cache when it is there (a copy, so
+// the caller may change it).
+func (s *Store) FeedSuggestions(ctx context.Context, versionID int64) (map[string]string, error) {
+	if s.frozen != nil {
+		if fv, ok := s.frozen.Get(versionID); ok {
+			return maps.Clone(fv.Suggestions), nil
+		}
+	}
+	return suggestionsOf(ctx, s.Pool, versionID)
+}
+
+func decodeContent(v *PlanVersion, req, res []byte) error {
+	if err := json.Unmarshal(req, &v.Request); err != nil {
+		return fmt.Errorf("plan version %d request: %w", v.ID, err)
+	}
+	if err := json.Unmarshal(res, &v.Result); err != nil {
+		return fmt.Errorf("plan version %d result: %w", v.ID, err)
+	}
+	return nil
 }

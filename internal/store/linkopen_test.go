@@ -131,6 +131,14 @@ func TestOpenClientLinkNeverServesSupersededVersion(t *testing.T) {
 	if err != nil || old.Version.BodyMassKg != 60 {
 		t.Fatalf("superseded version: %+v %v", old, err)
 	}
+	// The staff's list of versions: the status is the row's own (v1 was
+	// cached while published), the content each version's own.
+	vs, err := st.PlanVersions(ctx, p.ID)
+	if err != nil || len(vs) != 2 || vs[0].ID != v2.ID || vs[0].Status != store.PlanPublished || vs[0].BodyMassKg != 80 ||
+		vs[1].ID != v1.ID || vs[1].Status != store.PlanSuperseded || vs[1].Request.Athlete.BodyMassKg != 60 ||
+		vs[0].Result.Days[0].ChoG == vs[1].Result.Days[0].ChoG {
+		t.Fatalf("versions after publishing version 2: %+v %v", vs, err)
+	}
 	// A draft is never cached: it may still change.
 	v3, err := st.NewVersion(ctx, store.System, p.ID, v2.ID)
 	if err != nil {
@@ -138,6 +146,9 @@ func TestOpenClientLinkNeverServesSupersededVersion(t *testing.T) {
 	}
 	if _, err := st.FrozenVersionByID(ctx, v3.ID); err != store.ErrNotFound {
 		t.Fatalf("draft through the frozen cache: %v", err)
+	}
+	if vs, err := st.PlanVersions(ctx, p.ID); err != nil || len(vs) != 3 || vs[0].Status != store.PlanDraft || vs[0].Request.Athlete.BodyMassKg != 80 {
+		t.Fatalf("versions with a draft: %+v %v", vs, err)
 	}
 }
 

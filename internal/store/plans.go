@@ -376,30 +376,6 @@ func (s *Store) PlanByID(ctx context.Context, clientID, id int64) (Plan, error) 
 	return p, notFound(err)
 }
 
-// PlanVersions lists a plan's versions, newest first.
-func (s *Store) PlanVersions(ctx context.Context, planID int64) ([]PlanVersion, error) {
-	rows, err := s.Pool.Query(ctx, `SELECT `+versionCols+versionFrom+`WHERE v.plan_id = $1 ORDER BY v.version DESC`, planID)
-	if err != nil {
-		return nil, err
-	}
-	return pgx.CollectRows(rows, func(r pgx.CollectableRow) (PlanVersion, error) { return scanVersion(r) })
-}
-
-// PlanVersion loads version number `number` of a plan.
-func (s *Store) PlanVersion(ctx context.Context, planID int64, number int) (PlanVersion, error) {
-	return scanVersion(s.Pool.QueryRow(ctx, `SELECT `+versionCols+versionFrom+`WHERE v.plan_id = $1 AND v.version = $2`, planID, number))
-}
-
-// PublishedPlanVersion loads the published version of a plan, or ErrNotFound.
-func (s *Store) PublishedPlanVersion(ctx context.Context, planID int64) (PlanVersion, error) {
-	return scanVersion(s.Pool.QueryRow(ctx, `SELECT `+versionCols+versionFrom+`WHERE v.plan_id = $1 AND v.status = 'published'`, planID))
-}
-
-// FeedSuggestions returns the stored food suggestions of a version, by FeedKey.
-func (s *Store) FeedSuggestions(ctx context.Context, versionID int64) (map[string]string, error) {
-	return suggestionsOf(ctx, s.Pool, versionID)
-}
-
 // ListPlans lists a client's plans (all clients when clientID is 0), most
 // recently changed first, with their latest and published version numbers.
 func (s *Store) ListPlans(ctx context.Context, clientID int64) ([]PlanRow, error) {
