@@ -3,12 +3,14 @@ package server
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"net/http"
 	"sort"
 	"strings"
 	"time"
 
 	"github.com/go-chi/chi/v5"
+	lru "github.com/hashicorp/golang-lru/v2"
 
 	"larder/internal/auth"
 	"larder/internal/fuel"
@@ -274,6 +276,11 @@ func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	now := s.Now()
+	key := calendarKey(o, plans, now)
+	if body, ok := s.calendars.Get(key); ok {
+		writeCalendar(w, body)
+		return
+	}
 	cal := sheet.ICSCalendar{ProdID: "-//Larder//Client link//EN", Name: "Fuelling plan · " + firstName(o.ClientName)}
 	owners := dayOwners(plans)
 	for _, p := range plans {
@@ -309,9 +316,34 @@ func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
 		s.linkError(w, r, err)
 		return
 	}
+	s.calendars.Add(key, buf.Bytes())
+	writeCalendar(w, buf.Bytes())
+}
+
+func writeCalendar(w http.ResponseWriter, body []byte) {
 	w.Header().Set("Content-Type", "text/calendar; charset=utf-8")
 	w.Header().Set("Content-Disposition", `inline; filename="plan.ics"`)
-	_, _ = w.Write(buf.Bytes())
+	_, _ = w.Write(body)
+}
+
+// calendarCacheSize bounds the calendar feeds kept in memory (a feed is a
+// few tens of KB).
+const calendarCacheSize = 128
+
+// calendarKey names everything a client's calendar feed is made of: the
+// first name, whether a health note is recorded, and each published
+// plan's frozen version, event name and whether it is still in the feed's
+// window. Equal keys give byte-equal feeds, so a phone polling its
+// calendar is answered without building it again; publishing a new
+// version, renaming the event or the client changes the key.
+func calendarKey(o store.LinkOpen, plans []linkPlan, now time.Time) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%q|%t", firstName(o.ClientName), strings.TrimSpace(o.ClientCautions) != "")
+	for _, p := range plans {
+		inWindow := p.last >= now.Add(-feedLinkWindow).In(p.loc).Format(time.DateOnly)
+		fmt.Fprintf(&b, "|%d:%d:%q:%t", p.Plan.ID, p.Version.ID, p.eventName, inWindow)
+	}
+	return b.String()
 }
 
 // dayOwners gives, for each plan date, the plan whose figures the client
@@ -396,4 +428,12 @@ func longDay(date string) string {
 		return date
 	}
 	return t.Format("Monday 2 January")
+}
+
+func newCalendarCache() *lru.Cache[string, []byte] {
+	c, err := lru.New[string, []byte](calendarCacheSize)
+	if err != nil {
+		panic(err) // only for a size below 1
+	}
+	return c
 }

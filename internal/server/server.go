@@ -11,6 +11,7 @@ import (
 
 	"github.com/a-h/templ"
 	"github.com/alexedwards/scs/v2"
+	lru "github.com/hashicorp/golang-lru/v2"
 
 	"larder/internal/auth"
 	"larder/internal/store"
@@ -38,6 +39,8 @@ type Server struct {
 	// sessionNow is the wall clock of session idle limits, kept apart from
 	// Now (which tests set to a plan's dates) like scs's own lifetimes.
 	sessionNow func() time.Time
+	// calendars keeps built client calendar feeds by calendarKey.
+	calendars *lru.Cache[string, []byte]
 
 	// ClientPlansSection, when set (by mountPlanRoutes), renders the plans
 	// section of a client's page.
@@ -69,6 +72,7 @@ func New(cfg Config) *Server {
 		Log:        log,
 		Now:        now,
 		sessionNow: time.Now,
+		calendars:  newCalendarCache(),
 
 		secureCookies: cfg.SecureCookies,
 	}
