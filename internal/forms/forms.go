@@ -23,7 +23,8 @@ import (
 	"strconv"
 	"strings"
 	"time"
-	_ "time/tzdata" // time zones work on hosts without a zoneinfo database
+	_ "time/tzdata"
+	"unicode/utf8" // time zones work on hosts without a zoneinfo database
 
 	"github.com/go-playground/validator/v10"
 )
@@ -199,6 +200,13 @@ func Decode(values url.Values, dst any) Form {
 			continue
 		}
 		raw := strings.TrimSpace(f.Values.Get(name))
+		if BadText(raw) {
+			// PostgreSQL refuses such text outright; say so beside the field
+			// and show back what can be shown of it.
+			f.Values.Set(name, ShowableText(f.Values.Get(name)))
+			f.Errors.Add(name, BadTextMessage)
+			continue
+		}
 		if strings.Contains(sf.Tag.Get("validate"), "iana_zone") && raw != "" {
 			// Shown back as corrected, so the person sees the name that was saved.
 			raw = CanonicalZone(raw)
@@ -224,6 +232,21 @@ func Decode(values url.Values, dst any) Form {
 		}
 	}
 	return f
+}
+
+// BadTextMessage is shown beside a field whose text cannot be stored.
+const BadTextMessage = "This holds characters that cannot be saved (a NUL character or damaged text); please type it again."
+
+// BadText reports text that no database column can hold: bytes that are
+// not UTF-8, or the NUL character (PostgreSQL rejects both, SQLSTATE 22021).
+func BadText(s string) bool {
+	return !utf8.ValidString(s) || strings.IndexByte(s, 0) >= 0
+}
+
+// ShowableText is s with damaged bytes replaced and NULs removed, for
+// showing a refused value back in its input.
+func ShowableText(s string) string {
+	return strings.ReplaceAll(strings.ToValidUTF8(s, "\uFFFD"), "\x00", "")
 }
 
 func setField(v reflect.Value, raw string) error {

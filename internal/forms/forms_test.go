@@ -130,6 +130,7 @@ func FuzzDecode(f *testing.F) {
 	f.Add("mass=1e309&reps=99999999999&day=0000-00-00")
 	f.Add("zone=../../etc/passwd&clock=24:00&born=2027-13-01")
 	f.Add("mass=%00&name=%ff%fe")
+	f.Add("name=Ada%00&mass=60&email=a%c3%28@example.org")
 	fields := map[string]bool{"name": true, "mass": true, "reps": true, "count": true, "day": true, "born": true,
 		"clock": true, "zone": true, "kind": true, "agree": true, "email": true, "custom": true}
 	f.Fuzz(func(t *testing.T, query string) {
@@ -143,6 +144,16 @@ func FuzzDecode(f *testing.F) {
 			if !fields[k] {
 				t.Fatalf("error keyed by unknown field %q", k)
 			}
+		}
+		for k, vs := range form.Values {
+			for _, v := range vs {
+				if fields[k] && BadText(v) {
+					t.Fatalf("field %s shown back with text that cannot be stored: %q", k, v)
+				}
+			}
+		}
+		if BadText(s.Name) || BadText(s.Email) || BadText(s.Kind) || BadText(s.Zone) {
+			t.Fatalf("decoded text that cannot be stored: %+v", s)
 		}
 		if !form.Has() {
 			if s.Mass == nil || *s.Mass < 20 || *s.Mass > 300 || math.IsNaN(*s.Mass) {
@@ -219,4 +230,26 @@ func FuzzCanonicalZone(f *testing.F) {
 			t.Fatalf("CanonicalZone(%q) = %q, not a zone", s, got)
 		}
 	})
+}
+
+// Text PostgreSQL cannot store (NUL, bytes that are not UTF-8) is refused
+// beside its field, and the value shown back is printable.
+func TestDecodeRefusesBadText(t *testing.T) {
+	for _, raw := range []string{"Ada\x00", "\x00", "Ad\xffa", "caf\xc3", "a\xed\xa0\x80b"} {
+		var s sample
+		f := Decode(url.Values{"name": {raw}, "mass": {"60"}, "day": {"2027-04-18"}}, &s)
+		if f.Err("name") != BadTextMessage {
+			t.Errorf("name %q: message %q, want %q", raw, f.Err("name"), BadTextMessage)
+		}
+		if len(f.Errors) != 1 {
+			t.Errorf("name %q: errors %v, want only the name's", raw, f.Errors)
+		}
+		if BadText(f.Get("name")) || s.Name != "" {
+			t.Errorf("name %q: shown back %q, decoded %q", raw, f.Get("name"), s.Name)
+		}
+	}
+	var s sample
+	if f := Decode(url.Values{"name": {"Zoë Ødegård"}, "mass": {"60"}, "day": {"2027-04-18"}}, &s); f.Has() || s.Name != "Zoë Ødegård" {
+		t.Errorf("good accented name refused: %v", f.Errors)
+	}
 }

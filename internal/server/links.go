@@ -95,7 +95,7 @@ func decodeLinkForm(values map[string][]string) (linkInput, forms.Form) {
 	var in linkInput
 	in.Label = strings.TrimSpace(f.Get("label"))
 	switch {
-	case !utf8.ValidString(in.Label):
+	case forms.BadText(in.Label):
 		f.Errors.Add("label", "The label holds characters that are not text; please type it again.")
 	case utf8.RuneCountInString(in.Label) > 100:
 		f.Errors.Add("label", "Keep the label to 100 characters or fewer.")

@@ -49,8 +49,16 @@ func Redirect(w http.ResponseWriter, r *http.Request, url string) {
 	http.Redirect(w, r, url, http.StatusSeeOther)
 }
 
-// ServerError logs err and shows a plain 500 page.
+// ServerError logs err and shows a plain 500 page, or a 422 page when the
+// database refused text it cannot hold (a NUL or bytes that are not UTF-8)
+// that no form check caught, such as a search term.
 func (s *Server) ServerError(w http.ResponseWriter, r *http.Request, err error) {
+	if isUntextError(err) {
+		s.Log.Info("refused text the database cannot hold", "method", r.Method, "path", logPath(r))
+		s.Render(w, r, http.StatusUnprocessableEntity, "Text not accepted", "",
+			web.Message("Text not accepted", "What was sent holds characters that cannot be saved or searched for (a NUL character or damaged text). Nothing was changed. Go back, retype it and try again."))
+		return
+	}
 	s.Log.Error("server error", "method", r.Method, "path", logPath(r), "err", err)
 	s.Render(w, r, http.StatusInternalServerError, "Error", "",
 		web.Message("Something went wrong", "The request could not be completed because of a problem on our side. Nothing was changed. Please try again; if it keeps happening, tell your administrator."))
@@ -117,6 +125,12 @@ func (s *Server) ParseForm(w http.ResponseWriter, r *http.Request) bool {
 		return false
 	}
 	return true
+}
+
+// isUntextError is PostgreSQL's "invalid byte sequence" (SQLSTATE 22021).
+func isUntextError(err error) bool {
+	var pe *pgconn.PgError
+	return errors.As(err, &pe) && pe.Code == "22021"
 }
 
 func isForeignKeyViolation(err error) bool {
