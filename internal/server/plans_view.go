@@ -390,7 +390,7 @@ func (s *Server) clientBodyMassChart(r *http.Request, c store.Client, history []
 	for i := len(history) - 1; i >= 0; i-- { // history is newest first
 		pts = append(pts, chart.MassPoint{On: history[i].MeasuredOn, Kg: history[i].MassKg})
 	}
-	svg, err := chart.BodyMassTrend(pts)
+	svg, err := s.bodyMassSVG(pts)
 	if err != nil {
 		return nil, err
 	}

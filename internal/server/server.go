@@ -41,6 +41,8 @@ type Server struct {
 	sessionNow func() time.Time
 	// calendars keeps built client calendar feeds by calendarKey.
 	calendars *lru.Cache[string, []byte]
+	// charts keeps drawn body-mass trends (see bodyMassSVG).
+	charts *chartCache
 
 	// ClientPlansSection, when set (by mountPlanRoutes), renders the plans
 	// section of a client's page.
@@ -73,6 +75,7 @@ func New(cfg Config) *Server {
 		Now:        now,
 		sessionNow: time.Now,
 		calendars:  newCalendarCache(),
+		charts:     newChartCache(),
 
 		secureCookies: cfg.SecureCookies,
 	}
