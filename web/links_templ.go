@@ -59,7 +59,7 @@ func ClientLinkSection(v ClientLinksView) templ.Component {
 		}
 		ctx = templ.InitializeContext(ctx)
 		ctx = templ.ClearChildren(ctx)
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 1, "<h2>Client link</h2><p class=\"muted\">A personal address for the client's phone: today's targets and feeding times of their current published plan, and a calendar feed. It shows nothing of other clients and none of your notes. Revoked or expired links stop working at once.</p>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 1, "<h2>Client link</h2><p class=\"muted\" id=\"link-promise\">A personal address for the client's phone: today's feeding times and targets from their current published plan, and a calendar feed. It shows nothing of other clients, none of your notes and none of the recorded cautions: of the health notes, only the one you share with the athlete (client details). Energy and body-mass figures appear only when you chose to show them there. Revoked or expired links stop working at once.</p>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}

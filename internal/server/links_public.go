@@ -184,7 +184,7 @@ func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
 	now := s.Now()
 	v := web.ClientDayView{
 		PracticeName: o.PracticeName, FirstName: firstName(o.ClientName), Caution: fuel.Caution,
-		Cautions: splitCautions(o.ClientCautions), CalendarURL: r.URL.Path + "/plan.ics",
+		Notes: splitCautions(o.SharedNote), ShowFigures: o.ShowFigures, CalendarURL: r.URL.Path + "/plan.ics",
 		DateLabel: now.UTC().Format("Monday 2 January 2006"),
 	}
 	if p, today, ok := currentPlan(plans, now); ok {
@@ -299,7 +299,7 @@ func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
 		}
 		ip := sheet.ICSPlan{PlanID: p.Plan.ID, Version: p.Version.Version, Published: publishedAt(p),
 			Plan: result, Suggestions: withoutNoFit(p.Suggestions)}
-		if strings.TrimSpace(o.ClientCautions) != "" {
+		if strings.TrimSpace(o.SharedNote) != "" {
 			ip.FoodNote = "The food ideas are examples only. Swap them for foods that suit your health note and that you know you tolerate."
 		}
 		if ev := p.Version.Request.Event; ev != nil && owners[ev.StartsAt.In(p.loc).Format(time.DateOnly)] == p.Plan.ID {
@@ -331,14 +331,14 @@ func writeCalendar(w http.ResponseWriter, body []byte) {
 const calendarCacheSize = 128
 
 // calendarKey names everything a client's calendar feed is made of: the
-// first name, whether a health note is recorded, and each published
+// first name, whether a health note is shared, and each published
 // plan's frozen version, event name and whether it is still in the feed's
 // window. Equal keys give byte-equal feeds, so a phone polling its
 // calendar is answered without building it again; publishing a new
 // version, renaming the event or the client changes the key.
 func calendarKey(o store.LinkOpen, plans []linkPlan, now time.Time) string {
 	var b strings.Builder
-	fmt.Fprintf(&b, "%q|%t", firstName(o.ClientName), strings.TrimSpace(o.ClientCautions) != "")
+	fmt.Fprintf(&b, "%q|%t", firstName(o.ClientName), strings.TrimSpace(o.SharedNote) != "")
 	for _, p := range plans {
 		inWindow := p.last >= now.Add(-feedLinkWindow).In(p.loc).Format(time.DateOnly)
 		fmt.Fprintf(&b, "|%d:%d:%q:%t", p.Plan.ID, p.Version.ID, p.eventName, inWindow)

@@ -137,6 +137,8 @@ func TestClientLinkShowsOnlyOwnPublishedPlan(t *testing.T) {
 	mine := a.newClient(unique("Maren Quill"))
 	mine.Notes = "STAFF NOTE: discussed ferritin"
 	mine.Cautions = "coeliac disease"
+	mine.SharedNote = "Keep to gluten-free foods"
+	mine.AthleteSeesEnergyMass = true
 	if err := a.st.UpdateClient(context.Background(), store.System, &mine); err != nil {
 		t.Fatal(err)
 	}
@@ -164,11 +166,11 @@ func TestClientLinkShowsOnlyOwnPublishedPlan(t *testing.T) {
 		web.Num(today.ProteinG, 0)+" g", web.Num(today.FatG, 0)+" g", web.Num(today.EnergyKcal, 0)+" kcal",
 		today.Feeds[0].At.In(time.UTC).Format("15:04"), // London is on UTC in early March
 		web.Num(today.Feeds[0].ChoG, 0)+" g carbohydrate", "For example: 2 slices toast with jam",
-		"Coming days", "coeliac disease", "The food ideas are examples only", "not medical advice")
+		"Coming days", "Keep to gluten-free foods", "The food ideas are examples only", "not medical advice")
 	for _, d := range plan.Days[1:] {
 		r.mustContain(t, dayWords(d.Date), web.Num(d.ChoG, 0)+" g")
 	}
-	for _, never := range []string{"Oskar", other.Name, "OTHER CLIENT FOOD", "STAFF NOTE", "ferritin", "Quill", "Other's week"} {
+	for _, never := range []string{"Oskar", other.Name, "OTHER CLIENT FOOD", "STAFF NOTE", "ferritin", "Quill", "Other's week", "coeliac"} {
 		if strings.Contains(body, never) {
 			t.Errorf("client page shows %q", never)
 		}
@@ -564,22 +566,57 @@ func TestClientLinkOverlappingPlansLatestWins(t *testing.T) {
 	}
 }
 
-// TestClientLinkHealthNoteIsTheDietitians: a recorded caution is written by
-// staff, often about the client ("her diabetes team"), so the phone page
-// presents it as a note from the dietitian's records, not as the client's own.
-func TestClientLinkHealthNoteIsTheDietitians(t *testing.T) {
+// TestClientLinkPromiseKept holds the client-link panel to its promise:
+// a recorded caution and the staff notes never reach the athlete's phone
+// page or calendar; only the health note the dietitian shares does; energy
+// and body-mass figures (kcal, g per kg) appear only when chosen.
+func TestClientLinkPromiseKept(t *testing.T) {
 	a := newApp(t)
 	b, _ := a.signedIn(store.RoleDietitian)
 	c := a.newClient(unique("Iris Note"))
-	c.Cautions = "Type 1 diabetes: changes agreed with her diabetes team"
+	c.Cautions = "Type 1 diabetes: changes agreed with her diabetes team\nEating-disorder history (2022)"
+	c.Notes = "STAFF NOTE: low ferritin last spring"
 	if err := a.st.UpdateClient(context.Background(), store.System, &c); err != nil {
 		t.Fatal(err)
 	}
-	storePlan(t, a, c.ID, "Week plan", weekRequest("2027-03-01", 7), true, "")
+	_, plan := storePlan(t, a, c.ID, "Week plan", weekRequest("2027-03-01", 7), true, "")
 	token := makeLink(t, b, c.ID, "")
+	b.get("/clients/"+itoa(c.ID)).mustContain(t,
+		"none of your notes and none of the recorded cautions: of the health notes, only the one you share with the athlete",
+		"Energy and body-mass figures appear only when you chose to show them")
+	today := plan.Days[0]
+	private := []string{"Type 1", "diabetes team", "Eating-disorder", "STAFF NOTE", "ferritin", "Health note", "note from your dietitian"}
+	figures := []string{" kcal", "g per kg", web.Num(today.EnergyKcal, 0)}
+
 	_, page := getPublic(t, a, "/c/"+token)
-	response{body: page}.mustContain(t, "Health note from your dietitian’s records: Type 1 diabetes: changes agreed with her diabetes team")
-	if strings.Contains(page, "Your own health note") {
-		t.Error("the phone page calls the dietitian's note the client's own")
+	_, ics := getPublic(t, a, "/c/"+token+"/plan.ics")
+	cal := strings.Join(checkICS(t, ics), "\n")
+	response{body: page}.mustContain(t, web.Num(today.ChoG, 0)+" g", web.Num(today.Feeds[0].ChoG, 0)+" g carbohydrate")
+	for _, never := range append(private, figures...) {
+		if i := strings.Index(page, never); i >= 0 {
+			t.Errorf("phone page shows %q though nothing was shared: …%s…", never, page[max(0, i-200):min(len(page), i+100)])
+		}
+		if i := strings.Index(cal, never); i >= 0 {
+			t.Errorf("calendar shows %q though nothing was shared: …%s…", never, cal[max(0, i-200):min(len(cal), i+100)])
+		}
+	}
+
+	// The dietitian shares a note in plain words and shows the figures
+	// through the client form.
+	c, err := a.st.ClientByID(context.Background(), c.ID)
+	if err != nil {
+		t.Fatal(err)
+	}
+	form := clientValues(c)
+	form.Set("shared_note", "Check your glucose as your diabetes team showed you.")
+	form.Set("athlete_sees_energy_mass", "on")
+	b.post("/clients/"+itoa(c.ID), form).mustRedirect(t, "/clients/")
+	_, page = getPublic(t, a, "/c/"+token)
+	response{body: page}.mustContain(t, "A note from your dietitian", "Check your glucose as your diabetes team showed you.",
+		web.Num(today.EnergyKcal, 0)+" kcal", web.Num(today.ChoGPerKg, 1)+" g per kg body mass")
+	for _, never := range []string{"Type 1 diabetes", "Eating-disorder", "STAFF NOTE", "ferritin"} {
+		if strings.Contains(page, never) {
+			t.Errorf("phone page shows the private %q next to the shared note", never)
+		}
 	}
 }

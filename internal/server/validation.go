@@ -23,6 +23,8 @@ type clientForm struct {
 	Sport       string     `form:"sport" label:"Sport" validate:"max=100"`
 	Notes       string     `form:"notes" label:"Notes" validate:"max=5000"`
 	Cautions    string     `form:"cautions" label:"Recorded cautions" validate:"max=2000"`
+	SharedNote  string     `form:"shared_note" label:"Health note shared with the athlete" validate:"max=2000"`
+	ShowFigures bool       `form:"athlete_sees_energy_mass"`
 }
 
 // Youngest and oldest plausible clients, in years.
@@ -58,6 +60,8 @@ func (in *clientForm) apply(c *store.Client) {
 	c.Sport = in.Sport
 	c.Notes = in.Notes
 	c.Cautions = in.Cautions
+	c.SharedNote = in.SharedNote
+	c.AthleteSeesEnergyMass = in.ShowFigures
 }
 
 // clientStamp names the saved version of a client a form was opened on, so a
@@ -78,6 +82,10 @@ func clientValues(c store.Client) url.Values {
 	v.Set("sport", c.Sport)
 	v.Set("notes", c.Notes)
 	v.Set("cautions", c.Cautions)
+	v.Set("shared_note", c.SharedNote)
+	if c.AthleteSeesEnergyMass {
+		v.Set("athlete_sees_energy_mass", "on")
+	}
 	return v
 }
 

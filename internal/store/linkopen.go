@@ -14,13 +14,18 @@ const LinkUseEvery = time.Hour
 
 // LinkOpen is everything a client's link opens, read in one round trip:
 // the link, the few fields of its client the public pages show, the
-// practice's name and the client's published plans.
+// practice's name and the client's published plans. The recorded cautions
+// are not among them: only the note the dietitian shared reaches the
+// athlete, and what is never read cannot leak.
 type LinkOpen struct {
-	Link           ClientLink // without CreatedByName
-	ClientName     string
-	ClientCautions string
-	PracticeName   string
-	Plans          []PublishedRef // oldest plan first
+	Link       ClientLink // without CreatedByName
+	ClientName string
+	// SharedNote is the health note the dietitian chose to share.
+	SharedNote string
+	// ShowFigures: the dietitian chose to show energy and body-mass figures.
+	ShowFigures  bool
+	PracticeName string
+	Plans        []PublishedRef // oldest plan first
 }
 
 // PublishedRef names a plan's published version; FrozenVersionByID loads
@@ -40,7 +45,7 @@ type PublishedRef struct {
 // when none was recorded within LinkUseEvery.
 func (s *Store) OpenClientLink(ctx context.Context, hash []byte, now time.Time) (LinkOpen, error) {
 	rows, err := s.Pool.Query(ctx, `SELECT l.id, l.client_id, l.token_hash, l.label, l.created_by, l.created_at, l.expires_at,
-			l.revoked_at, l.last_used_at, c.name, c.cautions,
+			l.revoked_at, l.last_used_at, c.name, c.shared_note, c.athlete_sees_energy_mass,
 			coalesce((SELECT value FROM settings WHERE key = $3), $4),
 			p.id, p.event_id, p.kind, p.protocol, p.title, p.created_by, p.created_at, p.updated_at, v.id, coalesce(e.name, '')
 		FROM client_links l JOIN clients c ON c.id = l.client_id
@@ -61,7 +66,7 @@ func (s *Store) OpenClientLink(ctx context.Context, hash []byte, now time.Time) 
 		var p Plan
 		var event string
 		if err := rows.Scan(&l.ID, &l.ClientID, &l.TokenHash, &l.Label, &l.CreatedBy, &l.CreatedAt, &l.ExpiresAt,
-			&l.RevokedAt, &l.LastUsedAt, &o.ClientName, &o.ClientCautions, &o.PracticeName,
+			&l.RevokedAt, &l.LastUsedAt, &o.ClientName, &o.SharedNote, &o.ShowFigures, &o.PracticeName,
 			&pid, &p.EventID, &kind, &protocol, &title, &p.CreatedBy, &created, &updated, &vid, &event); err != nil {
 			rows.Close()
 			return LinkOpen{}, err

@@ -68,7 +68,7 @@ func TestLinkUseRecordedOncePerHour(t *testing.T) {
 func TestOpenClientLinkNeverServesSupersededVersion(t *testing.T) {
 	ctx := context.Background()
 	st := store.New(testdb.Pool(t))
-	c := store.Client{Name: uniq("Cached Athlete"), Sex: store.SexMale, Cautions: "coeliac"}
+	c := store.Client{Name: uniq("Cached Athlete"), Sex: store.SexMale, Cautions: "coeliac", SharedNote: "Keep to gluten-free foods", AthleteSeesEnergyMass: true}
 	if err := st.CreateClient(ctx, store.System, &c); err != nil {
 		t.Fatal(err)
 	}
@@ -87,7 +87,7 @@ func TestOpenClientLinkNeverServesSupersededVersion(t *testing.T) {
 			Suggestions: map[string]string{store.FeedKey("day", "2027-03-01", 0): sugg}}
 	}
 	o, err := st.OpenClientLink(ctx, l.TokenHash, now)
-	if err != nil || o.ClientName != c.Name || o.ClientCautions != "coeliac" || o.PracticeName == "" || len(o.Plans) != 0 {
+	if err != nil || o.ClientName != c.Name || o.SharedNote != "Keep to gluten-free foods" || !o.ShowFigures || o.PracticeName == "" || len(o.Plans) != 0 {
 		t.Fatalf("link without plans: %+v %v", o, err)
 	}
 
