@@ -3,6 +3,7 @@ package fuel
 import (
 	"math"
 	"testing"
+	"time"
 )
 
 func near(t *testing.T, name string, got, want, tol float64) {
@@ -158,28 +159,24 @@ func TestEventEnergy(t *testing.T) {
 
 func TestMarathonWall(t *testing.T) {
 	// Rapoport 2010; common practice: a typical runner at marathon pace with usual
-	// stores runs low at roughly 30–35 km. A 70 kg man, typical (usual) muscle
-	// glycogen in the legs, a full fed liver, 42.195 km in 3 h 30 min at 75% VO2max,
-	// no intake.
-	b := NewBody(Athlete{Sex: "male", BodyMassKg: 70}, "run")
-	sb := newSimBody(b)
-	s := simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: b.LiverCapG}.since(24)
-	durH := 3.5
-	kcal, _ := EventEnergy(b, Event{Modality: "run", DistanceKm: ptr(42.195), ExpectedDurationMin: durH * 60}, 75)
-	use := kcal / durH * ChoShare(75) / gAtwaterCho.Min
-	outH, _ := sb.race(s, durH, use, coverShare(75), 0)
-	if outH < 0 {
+	// stores runs low at roughly 30–35 km. On the real race path: a 70 kg man
+	// on his usual intake the day before, the plan's pre-event meal, 42.195 km
+	// in 3 h 30 min at 75% VO2max; the figure without in-event intake.
+	start := time.Date(2027, 4, 18, 9, 0, 0, 0, time.UTC)
+	p := mustCompute(t, Request{Kind: KindRace, Athlete: Athlete{Sex: "male", BodyMassKg: 70, HeightCm: ptr(178.0)},
+		Event: &Event{StartsAt: start, Modality: "run", DistanceKm: ptr(42.195), ExpectedDurationMin: 210, IntensityPctVO2max: ptr(75.0)}})
+	g := p.Glycogen
+	if g.RunsOutAtKm == nil {
 		t.Fatal("stores never ran out; the wall should come at 30–35 km")
 	}
-	km := outH / durH * 42.195
-	t.Logf("usual stores run out at %.1f km (%.0f min)", km, outH*60)
+	km := *g.RunsOutAtKm
+	t.Logf("fed, not loaded: stores run out at %.1f km (%.0f min), working muscle %.0f mmol/kg at the start", km, *g.RunsOutAtMin, g.WorkingMuscleMmolPerKgStart)
 	if km < gMarathonWall.Min || km > gMarathonWall.Max {
 		t.Errorf("stores run out at %.1f km, want %g–%g km", km, gMarathonWall.Min, gMarathonWall.Max)
 	}
-	// With 60 g/h (inside ACSM/AND/DC 2016; Jeukendrup AE. Sports Med 2014;44 Suppl 1:S25–S33 for over 2.5 h)
-	// the stores last longer.
-	out2, _ := sb.race(s, durH, use, coverShare(75), 60)
-	if out2 >= 0 && out2 <= outH {
-		t.Errorf("with 60 g/h stores run out at %.2f h, not later than %.2f h without", out2, outH)
+	// With the plan's in-event intake (inside ACSM/AND/DC 2016; Jeukendrup AE.
+	// Sports Med 2014;44 Suppl 1:S25–S33) the stores last longer.
+	if g.RunsOutWithIntakeAtKm != nil && *g.RunsOutWithIntakeAtKm <= km {
+		t.Errorf("with intake the stores run out at %.1f km, not later than %.1f km without", *g.RunsOutWithIntakeAtKm, km)
 	}
 }

@@ -55,14 +55,15 @@
 //     the other feeds share the rest of the day so feeds always add up.
 //   - sim.go: the glycogen model — working muscle, other muscle and liver
 //     in 5-minute steps over the plan (in 1-minute steps through the race):
-//     first-order gut emptying, a first-pass liver share, resting and
-//     daily-living carbohydrate use that scales with the stores (met by
-//     what is absorbed, else by liver, muscle and fat, so the intake sets
-//     where stores settle; the fasting liver loses a third to a half
-//     overnight and slows near a floor, gluconeogenesis sparing it in
-//     exercise), rate-limited muscle synthesis (peak 8 mmol/kg/h just after
-//     exercise, a third of that rested, slowing as stores fill towards 220
-//     mmol/kg), exercise use from energy × carbohydrate share with intake
+//     first-order gut delivery (1.5 h, at most 105 g/h), a first-pass
+//     liver share, resting and daily-living carbohydrate use that scales
+//     with the stores (met by what is absorbed, else by liver, muscle and
+//     fat, so the intake sets where stores settle; the fasting liver loses
+//     a third to a half overnight and slows near a floor, gluconeogenesis
+//     sparing it in exercise), muscle synthesis from emptiness, the
+//     post-exercise window and the glucose supply, slowing towards 220
+//     mmol/kg and calibrated against published refuelling studies
+//     (calibration_test.go), a depleted floor of 25 mmol/kg, exercise use from energy × carbohydrate share with intake
 //     covering at most about 35% at hard efforts; the stores run out when
 //     working muscle and liver are both (nearly) empty. A simulation starts
 //     at midnight from typical muscle glycogen and the fed liver a usual
@@ -86,10 +87,11 @@
 //     IOC 2018 statement and Pedersen 2008, diabetes cautions that never
 //     compute insulin, the pre-event meal's protein, the fitness finding).
 //
-// Limits: the glycogen model is a teaching-grade model calibrated to the
-// published ranges (typical and loaded densities, the 5–8 mmol/kg/h
-// synthesis ceiling, the 2-hour-delay effect, the marathon wall), not a
-// validated physiological simulator. Energy availability is (intake −
+// Limits: the glycogen model is a teaching-grade model calibrated to
+// published measurements (calibration_test.go: refuelling rates, 24 h
+// restoration, the 2-hour-delay effect, the marathon wall), not a
+// validated physiological simulator; one-day loading after a supramaximal
+// bout (Fairchild 2002) reaches only about half the measured gain. Energy availability is (intake −
 // exercise) / FFM and is honestly negative on days whose exercise
 // outweighs the intake.
 package fuel

@@ -131,8 +131,9 @@ var coreGuidelines = []Guideline{
 	{"model.typical-density", "starting muscle glycogen density when nothing else is known (middle of the typical band)", 100, 100, "mmol/kg wet muscle", SrcModel},
 	{"model.capacity-density", "asymptote of muscle glycogen density the synthesis model approaches (loaded band's '200+')", 220, 220, "mmol/kg wet muscle", SrcModel},
 	{"model.liver-per-kg", "liver glycogen capacity per kg body mass (gives 112 g at 70 kg, inside 100–120 g)", 1.6, 1.6, "g/kg", SrcModel},
-	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 3 h time constant (mixed meals), at most 90 g/h", 90, 3.0, "g/h; h", SrcModel},
-	{"model.window-boost", "post-exercise boost of the synthesis rate (rested rate a third of the peak, the rest decaying with a 1 h time constant), chosen so that feeding 2 h late roughly halves synthesis over the first 2 h of feeding", 2, 1.0, "×; h", SrcModel},
+	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 1.5 h time constant (86% of a meal within 3 h, 93% within 4 h: the 1–4 h pre-event meal timing), at most at the exogenous oxidation ceiling of multiple transportable carbohydrate, 1.75 g/min (Jeukendrup 2014; mixed meals hold glucose and fructose sources)", 105, 1.5, "g/h; h", SrcModel},
+	{"model.window-boost", "post-exercise window of synthesis: the rested rate is this share (Min) of the rate just after exercise, the rest decaying with a time constant (Max), so that feeding 2 h late lowers synthesis over the first 2 h of feeding by about a third (Ivy 1988 measured roughly a half)", 0.35, 1.5, "share; h", SrcModel},
+	{"model.synthesis-supply", "synthesis rises with the carbohydrate absorbed as x/(x+K), K in g per kg body mass per h: more at 1.2 than at 0.8 g/kg/h, levelling off above (Ivy 2004 review: about 1.2 g/kg/h maximises)", 0.4, 0.4, "g/kg/h", SrcModel},
 	{"model.working.swim", "working muscle share of skeletal muscle, swimming", 0.70, 0.70, "share", SrcModel},
 	{"model.working.row", "working muscle share of skeletal muscle, rowing and cross-country skiing", 0.85, 0.85, "share", SrcModel},
 	{"model.working.triathlon", "working muscle share of skeletal muscle, triathlon", 0.75, 0.75, "share", SrcModel},
@@ -146,7 +147,7 @@ var coreGuidelines = []Guideline{
 	{"fat.upper", "fat share of energy used at most when filling an energy target", 0.35, 0.35, "share of energy", SrcCommon},
 	{"fat.upper-event", "fat share of energy used at most on the event day itself: carbohydrate gets the room and fat is kept moderate around racing", 0.25, 0.25, "share of energy", SrcCommon},
 	{"model.rest-cho-ox", "resting and daily-living carbohydrate use at typical stores, scaled in proportion to stores / typical so intake sets the level stores settle at", 0.17, 0.17, "g/kg/h", SrcModel},
-	{"model.resynthesis-peak", "peak synthesis rate used (top of 5–8), at depleted stores just after exercise", 8, 8, "mmol/kg wet muscle/h", SrcModel},
+	{"model.resynthesis-peak", "synthesis rate of empty muscle just after exercise with unlimited glucose supply; with the window and supply terms it gives the 5–8 (Jentjens & Jeukendrup), 8–10 wet (Flynn 2020, Wallis 2008, Pedersen 2008) and one-day loading (Fairchild 2002) rates", 24, 24, "mmol/kg wet muscle/h", SrcModel},
 	{"model.cover-easy", "share of carbohydrate use intake can cover at easy efforts (40% VO2max and below); falls to 0.35 at 67% VO2max (≈80% of maximum heart rate)", 0.6, 0.6, "share", SrcModel},
 	{"model.race-intensity", "race intensity when none is given, by duration: ≤15 min 95, ≤45 min 90, ≤90 min 85, ≤3 h 80, ≤5 h 72, ≤10 h 65, else 55", 55, 95, "% VO2max", SrcModel},
 	{"during.long-floor", "over 2.5 h, the usual practical intake is 60–90 g/h", 60, 90, "g/h", SrcCommon},
@@ -250,6 +251,7 @@ var (
 	gModelLiver    = guideline("model.liver-per-kg")
 	gModelGut      = guideline("model.gut-absorption")
 	gModelBoost    = guideline("model.window-boost")
+	gModelSupply   = guideline("model.synthesis-supply")
 	gModelMuscleFr = guideline("model.run-fraction")
 
 	gWorkSwim        = guideline("model.working.swim")

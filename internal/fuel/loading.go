@@ -68,9 +68,15 @@ func (p *planner) loading() {
 	}
 	p.eventSimulation(first, dates[taper-nLoad], evDay, true)
 	if proto == ProtocolOneDay {
+		// Say what the model reaches, not what the studies did: the
+		// loaded band only when the start-line density is inside it.
+		reach := "stays below the loaded band"
+		if p.startDensity >= gLoaded.Min {
+			reach = "is in the loaded band"
+		}
 		p.find("one-day-loading", LevelNote, "plan", SrcBussau,
-			"One-day loading: about %.0f g/kg in 24 h with rest, after a short intense bout, reaches high muscle glycogen.",
-			gLoadingOneDay.Min)
+			"One-day loading: about %.0f g/kg in 24 h with rest, after a short intense bout. Here the working muscle reaches about %.0f mmol/kg at the start, which %s (%.0f–%.0f+ mmol/kg).",
+			gLoadingOneDay.Min, p.startDensity, reach, gLoaded.Min, gLoaded.Max)
 		// The protocol starts with the bout: look for a short, hard
 		// session on the load day.
 		loadDate := dates[taper-nLoad].Format("2006-01-02")

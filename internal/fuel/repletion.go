@@ -114,6 +114,8 @@ func (p *planner) repletion() {
 	r.MuscleGAtNextStart = math.Round(p.sb.muscleG(sEnd))
 	r.WorkingMuscleGAtNextStart = math.Round(p.sb.workingG(sEnd))
 	r.WorkingMuscleGAtEnd = math.Round(p.sb.workingG(s))
+	r.WorkingMuscleMmolPerKgAtEnd = round1(s.Dw)
+	r.WorkingMuscleMmolPerKgAtNextStart = round1(sEnd.Dw)
 	r.MuscleGCapacity = math.Round(GlycogenG(gModelCapacity.Min, p.body.SkeletalKg))
 	r.Curve = curve
 	p.plan.Repletion = r

@@ -10,8 +10,10 @@ import (
 //   - Three stores: glycogen of the working muscle and of the other
 //     skeletal muscle (densities in mmol glucosyl/kg wet muscle) and liver
 //     glycogen in grams, plus a gut pool of eaten carbohydrate.
-//   - The gut empties first-order with a 3 h time constant and delivers
-//     at most 90 g/h (model assumption).
+//   - The gut delivers first-order with a 1.5 h time constant, at most
+//     105 g/h: the exogenous oxidation ceiling of multiple transportable
+//     carbohydrate, 1.75 g/min (Jeukendrup 2014), so a pre-event meal is
+//     mostly absorbed by the start and recovery feeds keep pace.
 //   - Resting and daily-living carbohydrate use is 0.17 g/kg/h at typical
 //     stores and scales with stores/typical, so the intake sets the
 //     level stores settle at (model assumption). The liver takes 30% of
@@ -29,16 +31,17 @@ import (
 //     gluconeogenesis supplies up to 0.1 g/kg/h of its output (model
 //     assumptions): liver glycogen falls but does not run dry in a fasted
 //     morning session.
-//   - Muscle synthesis is rate-limited: peak 8 mmol/kg/h (the top of the
-//     5–8 of Jentjens and Jeukendrup) at depleted stores just after
-//     exercise, falling as the fourth root of the room left to zero as
-//     density nears 220 mmol/kg (the
-//     '200+' of the loaded band), and, for the working muscle, boosted
-//     after exercise: the rested rate is a third of the peak and the rest decays
-//     with a 1 h time constant, so
-//     that waiting 2 h roughly halves the early rate (Ivy et al.). Muscle
-//     that did not exercise fills at a quarter of the rested rate. Supply
-//     beyond what muscle and liver can take is oxidised or stored as fat.
+//   - Muscle synthesis is the product of three mechanisms (synthRate):
+//     emptiness (slowing as the fourth root of the room left to the 220
+//     mmol/kg capacity), the post-exercise window (the rested rate 35% of
+//     the early one, the rest decaying with a 1.5 h time constant; Ivy
+//     1988) and the glucose supply (x/(x+0.4) of the carbohydrate absorbed
+//     in g/kg/h; more at 1.2 than at 0.8 g/kg/h, Ivy 2004). The constants
+//     are checked against the studies' rates in calibration_test.go.
+//     Muscle that did not exercise fills at a quarter of the rested rate.
+//     Supply beyond what muscle and liver can take is oxidised or stored
+//     as fat. Exercise and daily living take working muscle down to the
+//     depleted floor (25 mmol/kg), not below.
 //   - During exercise, carbohydrate use is the energy rate × the share of
 //     carbohydrate at the intensity ÷ 4 kcal/g. Eaten carbohydrate covers
 //     at most 35% of that use at hard efforts (≥ 67% VO2max ≈ 80% of
@@ -51,6 +54,7 @@ import (
 // simBody holds the constants of one athlete's simulation.
 type simBody struct {
 	workingKg, otherKg float64
+	massKg             float64
 	liverCapG          float64
 	restOxGPerH        float64 // at typical stores
 	liverDrainGPerH    float64 // fasting glycogen output of the liver
@@ -70,12 +74,13 @@ func newSimBody(b Body) simBody {
 	return simBody{
 		workingKg:   b.WorkingKg,
 		otherKg:     other,
+		massKg:      b.MassKg,
 		liverCapG:   b.LiverCapG,
 		restOxGPerH: gRestOx.Min * b.MassKg,
 		// The fasting liver gives up the overnight fall's upper end (half)
-		// over the fast's middle hours (11 of 10–12) less the first 3 in
-		// which the evening meal is still being absorbed (the gut's time
-		// constant); with that absorption, the modelled fall from the
+		// over the fast's middle hours (11 of 10–12) less the first two
+		// gut time constants (3 h), in which the evening meal is still
+		// being absorbed (86% of it); with that absorption, the modelled fall from the
 		// evening's peak to breakfast lands inside a third to a half.
 		liverDrainGPerH: gOvernightFall.Max * b.LiverCapG /
 			((gOvernightHours.Min+gOvernightHours.Max)/2 - gModelGut.Max),
@@ -110,21 +115,28 @@ func (b simBody) muscleG(s simState) float64 {
 
 func (b simBody) workingG(s simState) float64 { return GlycogenG(s.Dw, b.workingKg) }
 
-// synthRate is the muscle synthesis ceiling in mmol/kg/h at density d;
-// boostLeft is what remains of the post-exercise window (1 just after
-// exercise, falling to 0).
-func synthRate(d, boostLeft float64) float64 {
+// synthRate is the muscle synthesis rate in mmol/kg/h at density d, as
+// the product of three mechanisms: emptiness (glycogen synthase is most
+// active in empty muscle; the rate slows as the fourth root of the room
+// left, to zero at the capacity density), the post-exercise window
+// (boostLeft: 1 just after exercise, decaying; the rested rate is a share
+// of the early one, Ivy 1988) and the supply of glucose (xGPerKgH, the
+// carbohydrate absorbed in g per kg body mass per hour: synthesis rises
+// with intake towards a plateau near 1.2 g/kg/h, Ivy 2004).
+func synthRate(d, boostLeft, xGPerKgH float64) float64 {
 	capD, lowD := gModelCapacity.Min, gDepleted.Min
 	g := (capD - d) / (capD - lowD)
-	if g <= 0 {
+	if g <= 0 || xGPerKgH <= 0 {
 		return 0
 	}
 	if g > 1 {
 		g = 1
 	}
 	g = math.Sqrt(math.Sqrt(g))
-	boost := gModelBoost.Min
-	return gResynthPeak.Min * g * (1 + boost*boostLeft) / (1 + boost)
+	rested := gModelBoost.Min
+	w := rested + (1-rested)*boostLeft
+	supply := xGPerKgH / (xGPerKgH + gModelSupply.Min)
+	return gResynthPeak.Min * g * w * supply
 }
 
 // coverShare is the share of carbohydrate use that eaten carbohydrate can
@@ -166,7 +178,8 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 		b.boostDecay = math.Exp(-dt / gModelBoost.Max)
 	}
 	s.GutG += eatGPerH * dt
-	// The gut empties first-order (3 h time constant), at most gutGPerH.
+	// The gut delivers first-order (time constant gModelGut.Max), at most
+	// gutGPerH: the exogenous oxidation ceiling of mixed carbohydrate.
 	a := min(s.GutG*b.gutFrac, b.gutGPerH*dt)
 	s.GutG -= a
 	if use > 0 {
@@ -174,7 +187,9 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 		exo := min(a, cover*c)
 		a -= exo
 		e := c - exo
-		wG := GlycogenG(s.Dw, b.workingKg)
+		// Working muscle gives glycogen down to the depleted floor, not
+		// below: the depleted state studies measure is 25–40 mmol/kg.
+		wG := GlycogenG(max(0, s.Dw-gDepleted.Min), b.workingKg)
 		fromM := gModelMuscleFr.Min * e
 		fromL := e - fromM
 		if fromM > wG {
@@ -195,10 +210,7 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 		}
 		s.LiverG -= got
 		if b.workingKg > 0 {
-			s.Dw -= fromM / (b.workingKg * gGlucosyl.Min)
-			if s.Dw < 0 {
-				s.Dw = 0
-			}
+			s.Dw = max(min(s.Dw, gDepleted.Min), s.Dw-fromM/(b.workingKg*gGlucosyl.Min))
 		}
 		s.sinceExH = 0
 		s.boostLeft = 1
@@ -208,6 +220,9 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 	}
 	s.sinceExH += dt
 	s.boostLeft *= b.boostDecay
+	// The supply that drives synthesis: all carbohydrate absorbed, per kg
+	// body mass per hour.
+	x := a / dt / b.massKg
 	// First pass: the liver takes its share of what is absorbed. Then
 	// resting and daily-living use, covered by absorbed carbohydrate and
 	// (up to the fasting drain) by the liver; then muscle synthesis
@@ -233,15 +248,16 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 		// spread over all muscle; fat covers what remains.
 		if m := gDailyMuscle.Min * (r - d); m > 0 && totalKg > 0 {
 			dd := m / (totalKg * gGlucosyl.Min)
-			s.Dw, s.Do = max(0, s.Dw-dd), max(0, s.Do-dd)
+			fl := gDepleted.Min
+			s.Dw, s.Do = max(min(s.Dw, fl), s.Dw-dd), max(min(s.Do, fl), s.Do-dd)
 		}
 	}
 	if a <= 0 {
 		return 0
 	}
 	k := gGlucosyl.Min * dt
-	dw := synthRate(s.Dw, s.boostLeft) * b.workingKg * k
-	do := gOtherRate.Min * synthRate(s.Do, 0) * b.otherKg * k
+	dw := synthRate(s.Dw, s.boostLeft, x) * b.workingKg * k
+	do := gOtherRate.Min * synthRate(s.Do, 0, x) * b.otherKg * k
 	if need := dw + do; need > a {
 		f := a / need
 		dw, do = dw*f, do*f

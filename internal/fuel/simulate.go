@@ -163,11 +163,12 @@ func (p *planner) eventSimulation(first, loadStart, evDay time.Time, loading boo
 	curve = append(curve, p.sb.point(sStart, start, p.loc))
 
 	g := &Glycogen{
-		MuscleGStart:        math.Round(p.sb.muscleG(sStart)),
-		WorkingMuscleGStart: math.Round(p.sb.workingG(sStart)),
-		LiverGStart:         math.Round(sStart.LiverG),
-		MuscleGCapacity:     math.Round(GlycogenG(gModelCapacity.Min, p.body.SkeletalKg)),
-		Curve:               curve,
+		MuscleGStart:                math.Round(p.sb.muscleG(sStart)),
+		WorkingMuscleGStart:         math.Round(p.sb.workingG(sStart)),
+		WorkingMuscleMmolPerKgStart: round1(sStart.Dw),
+		LiverGStart:                 math.Round(sStart.LiverG),
+		MuscleGCapacity:             math.Round(GlycogenG(gModelCapacity.Min, p.body.SkeletalKg)),
+		Curve:                       curve,
 	}
 	outH, _ := p.raceOut(sStart, 0)
 	g.RunsOutAtMin, g.RunsOutAtKm = p.runsOut(outH)

@@ -219,6 +219,11 @@ type Repletion struct {
 	// The working muscle's share: at the session's end and at the next start.
 	WorkingMuscleGAtEnd       float64 `json:"working_muscle_g_at_end"`
 	WorkingMuscleGAtNextStart float64 `json:"working_muscle_g_at_next_start"`
+	// The same as densities, mmol glucosyl per kg wet working muscle: the
+	// unit studies report, to compare with the depleted, typical and
+	// loaded bands.
+	WorkingMuscleMmolPerKgAtEnd       float64 `json:"working_muscle_mmol_per_kg_at_end"`
+	WorkingMuscleMmolPerKgAtNextStart float64 `json:"working_muscle_mmol_per_kg_at_next_start"`
 	// SessionSimulated tells whether the session that ended was found in
 	// the training log and simulated (otherwise its end state is assumed).
 	SessionSimulated bool `json:"session_simulated"`
@@ -251,6 +256,9 @@ type Glycogen struct {
 	// WorkingMuscleGStart is the part of MuscleGStart in the working muscle:
 	// with the liver, what the event can draw on.
 	WorkingMuscleGStart float64 `json:"working_muscle_g_start"`
+	// WorkingMuscleMmolPerKgStart is the working muscle's glycogen density
+	// at the start, mmol glucosyl per kg wet muscle.
+	WorkingMuscleMmolPerKgStart float64 `json:"working_muscle_mmol_per_kg_start"`
 	// Where the stores would run out in the event (null when they last).
 	RunsOutAtKm            *float64 `json:"runs_out_at_km"`
 	RunsOutAtMin           *float64 `json:"runs_out_at_min"`

@@ -34,11 +34,12 @@ func (p *planner) week() {
 	s := p.simulateSessions(p.startState(), from, to, ex, in, &curve)
 	curve = append(curve, p.sb.point(s, to, p.loc))
 	p.plan.Glycogen = &Glycogen{
-		MuscleGStart:        math.Round(p.sb.muscleG(s)),
-		WorkingMuscleGStart: math.Round(p.sb.workingG(s)),
-		LiverGStart:         math.Round(s.LiverG),
-		MuscleGCapacity:     math.Round(GlycogenG(gModelCapacity.Min, p.body.SkeletalKg)),
-		Curve:               curve,
+		MuscleGStart:                math.Round(p.sb.muscleG(s)),
+		WorkingMuscleGStart:         math.Round(p.sb.workingG(s)),
+		WorkingMuscleMmolPerKgStart: round1(s.Dw),
+		LiverGStart:                 math.Round(s.LiverG),
+		MuscleGCapacity:             math.Round(GlycogenG(gModelCapacity.Min, p.body.SkeletalKg)),
+		Curve:                       curve,
 	}
 	p.find("week-glycogen", LevelNote, "glycogen", SrcModel,
 		"For a week plan the glycogen figures are the expected state at the end of the last day: muscle about %.0f g, liver about %.0f g.",

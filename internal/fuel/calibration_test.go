@@ -1,0 +1,281 @@
+package fuel
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+	"time"
+)
+
+// The calibration table: each study of REFERENCES.md's kinetics section
+// re-created as a request, its published value (mean ± SD, or the stated
+// range) beside ours. A model value must lie within mean ± 1.5 SD (or the
+// range). Studies that report per kg dry muscle are converted to wet
+// muscle by ÷ 4.3 (REFERENCES.md, common practice: muscle is about three
+// quarters water); the conversion is written in each row.
+
+const dryToWet = 4.3
+
+type calibration struct {
+	study, protocol, published string
+	// gap, when set, says why the model does not yet reach the study: the
+	// row is shown, not asserted, until the model represents it.
+	gap    string
+	lo, hi float64
+	ours   func(t *testing.T) float64
+}
+
+// sdRange is mean ± 1.5 SD.
+func sdRange(mean, sd float64) (float64, float64) { return mean - 1.5*sd, mean + 1.5*sd }
+
+var calibrationZone = time.FixedZone("", 0)
+
+// refuelStudy runs a repletion request: a cycling session of exMin at
+// intensity ending at 12:00, the next start gapH later, and the refuelling
+// feeds (every 30 min from the session's end) set to grams(i) each. It
+// returns the working muscle's density at the session's end and at the
+// next start, mmol/kg ww.
+func refuelStudy(t *testing.T, massKg, exMin float64, intensity string, gapH float64, grams func(i int) float64) (end, next float64) {
+	t.Helper()
+	sessionEnd := time.Date(2027, 3, 10, 12, 0, 0, 0, calibrationZone)
+	start := sessionEnd.Add(-time.Duration(exMin * float64(time.Minute)))
+	nextStart := sessionEnd.Add(time.Duration(gapH * float64(time.Hour)))
+	req := Request{
+		Kind:    KindRepletion,
+		Athlete: Athlete{Sex: "male", BodyMassKg: massKg, HeightCm: ptr(178.0)},
+		Training: []TrainingSession{{Date: start.Format("2006-01-02"), Start: start.Format("15:04"),
+			DurationMin: exMin, Modality: "cycle", Intensity: intensity}},
+		SessionEnd: &sessionEnd, NextStart: &nextStart,
+	}
+	if grams != nil {
+		p := mustCompute(t, req)
+		for _, d := range p.Days {
+			for i, f := range d.Feeds {
+				if f.Label != labelRefuel {
+					continue
+				}
+				k := int(f.At.Sub(sessionEnd) / (30 * time.Minute))
+				req.FeedOverrides = append(req.FeedOverrides, FeedOverride{Date: d.Date, Index: i, ChoG: ptr(grams(k))})
+			}
+		}
+	}
+	p := mustCompute(t, req)
+	if !p.Repletion.SessionSimulated {
+		t.Fatal("the study's session was not simulated")
+	}
+	return p.Repletion.WorkingMuscleMmolPerKgAtEnd, p.Repletion.WorkingMuscleMmolPerKgAtNextStart
+}
+
+// refuelRate is the mean working-muscle synthesis over gapH hours.
+func refuelRate(t *testing.T, massKg, exMin float64, intensity string, gapH float64, grams func(i int) float64) float64 {
+	end, next := refuelStudy(t, massKg, exMin, intensity, gapH, grams)
+	return (next - end) / gapH
+}
+
+var calibrations = []calibration{
+	{
+		study:     "Flynn 2020",
+		protocol:  "90 min cycling; 1.6 g/kg carbohydrate at 0 and 2 h; 4 h (70 kg man, 70% VO2max assumed)",
+		published: "7.9 ± 2.7 mmol/kg ww/h (men)",
+		ours: func(t *testing.T) float64 {
+			return refuelRate(t, 70, 90, "pct:70", 4, func(i int) float64 {
+				if i == 0 || i == 4 {
+					return 1.6 * 70
+				}
+				return 0
+			})
+		},
+	},
+	{
+		study:     "Wallis 2008",
+		protocol:  "glycogen-lowering cycling (2 h at 70% VO2max assumed); glucose 90 g/h as 45 g every 30 min; 4 h (70 kg man)",
+		published: "44 ± 8 mmol/kg dw/h (glucose) ÷ 4.3 = 10.2 ± 1.9 ww",
+		ours: func(t *testing.T) float64 {
+			return refuelRate(t, 70, 120, "pct:70", 4, func(int) float64 { return 45 })
+		},
+	},
+	{
+		study:     "Pedersen 2008",
+		protocol:  "exhausting cycling (2 h at 70% VO2max assumed); 4 g/kg carbohydrate over 4 h, as 0.5 g/kg every 30 min; no caffeine arm (70 kg man)",
+		published: "38.0 ± 7.7 mmol/kg dw/h ÷ 4.3 = 8.8 ± 1.8 ww",
+		ours: func(t *testing.T) float64 {
+			return refuelRate(t, 70, 120, "pct:70", 4, func(int) float64 { return 0.5 * 70 })
+		},
+	},
+	{
+		study:     "Jentjens & Jeukendrup 2003",
+		protocol:  "the plan's own speedy refuelling (1.1 g/kg/h in feeds every 30 min) after 2 h of hard cycling; 4 h (70 kg man)",
+		published: "5–8 mmol/kg ww/h with ample carbohydrate",
+		lo:        5, hi: 8,
+		ours: func(t *testing.T) float64 {
+			return refuelRate(t, 70, 120, "hard", 4, nil)
+		},
+	},
+	{
+		study:     "Fairchild 2002",
+		protocol:  "one-day loading plan: a short bout at 100% VO2max (the request's ceiling; the study used 150 s at 130% + 30 s all-out) at 07:00, then 10.3 g/kg (12 g/kg lean mass) for 24 h; density 24 h after the bout (70 kg man)",
+		published: "109 ± 8 → 198 ± 13 mmol/kg ww",
+		gap: "the model has no mechanism for the supramaximal bout's effect (glycogen synthase kept active for many hours " +
+			"in all fibre types); its rested synthesis between meals gives about half the study's gain",
+		ours: func(t *testing.T) float64 {
+			return oneDayLoadingStudy(t)
+		},
+	},
+	{
+		study:     "ACSM/AND/DC 2016",
+		protocol:  "5 h of moderate cycling ending 13:00; 12 g/kg on that day and the next; density 24 h after the ride (70 kg man)",
+		published: "stores restored within about 24 h: at least the typical band's 80 mmol/kg ww, at most the loaded 220",
+		lo:        80, hi: 220,
+		ours: func(t *testing.T) float64 {
+			return restorationStudy(t)
+		},
+	},
+}
+
+func init() {
+	set := func(study string, lo, hi float64) {
+		for i := range calibrations {
+			if calibrations[i].study == study {
+				calibrations[i].lo, calibrations[i].hi = lo, hi
+				return
+			}
+		}
+		panic(study)
+	}
+	lo, hi := sdRange(7.9, 2.7) // Flynn 2020, men
+	set("Flynn 2020", lo, hi)
+	lo, hi = sdRange(44/dryToWet, 8/dryToWet) // Wallis 2008, glucose
+	set("Wallis 2008", lo, hi)
+	lo, hi = sdRange(38.0/dryToWet, 7.7/dryToWet) // Pedersen 2008, no caffeine
+	set("Pedersen 2008", lo, hi)
+	lo, hi = sdRange(198, 13) // Fairchild 2002, after 24 h
+	set("Fairchild 2002", lo, hi)
+}
+
+// oneDayLoadingStudy re-creates Fairchild 2002 as a one-day loading plan:
+// the load day holds the short bout at 07:00 and 10.3 g/kg; the event
+// starts 24 h after the bout with nothing eaten on its day before it.
+func oneDayLoadingStudy(t *testing.T) float64 {
+	t.Helper()
+	evStart := time.Date(2027, 3, 11, 7, 3, 0, 0, calibrationZone)
+	req := Request{
+		Kind: KindLoading, Protocol: ProtocolOneDay, TaperDays: 1,
+		Athlete: Athlete{Sex: "male", BodyMassKg: 70, HeightCm: ptr(178.0), BodyFatPct: ptr(14.0)},
+		Event: &Event{StartsAt: evStart, Modality: "cycle", ExpectedDurationMin: 150,
+			IntensityPctVO2max: ptr(70.0)},
+		Training:  []TrainingSession{{Date: "2027-03-10", Start: "07:00", DurationMin: 3, Modality: "cycle", Intensity: "pct:100"}},
+		Overrides: []DayOverride{{Date: "2027-03-10", ChoGPerKg: ptr(10.3)}},
+	}
+	p := mustCompute(t, req)
+	for _, d := range p.Days {
+		if d.Date != "2027-03-11" {
+			continue
+		}
+		for i, f := range d.Feeds {
+			if f.At.Before(evStart) {
+				req.FeedOverrides = append(req.FeedOverrides, FeedOverride{Date: d.Date, Index: i, ChoG: ptr(0.0)})
+			}
+		}
+	}
+	p = mustCompute(t, req)
+	return p.Glycogen.WorkingMuscleMmolPerKgStart
+}
+
+// restorationStudy: 5 h of moderate cycling, then 12 g/kg a day; the
+// working muscle's density 24 h after the ride.
+func restorationStudy(t *testing.T) float64 {
+	t.Helper()
+	sessionEnd := time.Date(2027, 3, 10, 13, 0, 0, 0, calibrationZone)
+	next := sessionEnd.Add(24 * time.Hour)
+	req := Request{
+		Kind:    KindRepletion,
+		Athlete: Athlete{Sex: "male", BodyMassKg: 70, HeightCm: ptr(178.0)},
+		Training: []TrainingSession{{Date: "2027-03-10", Start: "08:00", DurationMin: 300,
+			Modality: "cycle", Intensity: "moderate"}},
+		SessionEnd: &sessionEnd, NextStart: &next,
+		Overrides: []DayOverride{{Date: "2027-03-10", ChoGPerKg: ptr(12.0)}, {Date: "2027-03-11", ChoGPerKg: ptr(12.0)}},
+	}
+	p := mustCompute(t, req)
+	if !p.Repletion.SessionSimulated {
+		t.Fatal("the ride was not simulated")
+	}
+	return p.Repletion.WorkingMuscleMmolPerKgAtNextStart
+}
+
+func TestCalibrationTable(t *testing.T) {
+	var b strings.Builder
+	fmt.Fprintf(&b, "\n%-28s | %-40s | %7s\n", "study", "published (accepted range)", "ours")
+	for _, c := range calibrations {
+		got := c.ours(t)
+		fmt.Fprintf(&b, "%-28s | %-40s | %7.1f\n", c.study, fmt.Sprintf("%s (%.1f–%.1f)", c.published, c.lo, c.hi), got)
+		if c.gap != "" {
+			fmt.Fprintf(&b, "%-28s   NOT MET, known gap: %s\n", "", c.gap)
+			continue
+		}
+		if got < c.lo || got > c.hi {
+			t.Errorf("%s (%s): ours %.1f, published %s, accepted %.1f–%.1f", c.study, c.protocol, got, c.published, c.lo, c.hi)
+		}
+	}
+	t.Log(b.String())
+}
+
+// Ivy JL et al. 1988 (from memory): feeding 2 h after exercise instead of
+// at once roughly halves the synthesis rate over the first 2 h of
+// feeding. 2 g/kg at the start of feeding; the rate over the 2 h after it.
+func TestCalibrationDelayAfterExercise(t *testing.T) {
+	only := func(k int) func(int) float64 {
+		return func(i int) float64 {
+			if i == k {
+				return 2 * 70
+			}
+			return 0
+		}
+	}
+	end, at2 := refuelStudy(t, 70, 120, "pct:70", 2, only(0))
+	immediate := (at2 - end) / 2
+	// Delayed: the same request run for 2 h unfed gives the drift of the
+	// first 2 h; the 4 h run with the feed at 2 h gives the rest.
+	unfedEnd, unfed2 := refuelStudy(t, 70, 120, "pct:70", 2, only(-1))
+	end4, at4 := refuelStudy(t, 70, 120, "pct:70", 4, only(4))
+	delayed := (at4 - end4 - (unfed2 - unfedEnd)) / 2
+	ratio := delayed / immediate
+	t.Logf("Ivy 1988: immediate %.1f, 2 h later %.1f mmol/kg ww/h, ratio %.2f (published: roughly halves)", immediate, delayed, ratio)
+	if ratio < 0.35 || ratio > 0.7 {
+		t.Errorf("delay ratio %.2f, want roughly a half (0.35–0.7)", ratio)
+	}
+}
+
+// Ivy JL 2004 (review): about 1.2 g/kg/h maximises short-term repletion,
+// so 1.2 g/kg/h gives more than 0.8 (van Loon 2000, from memory: clearly
+// more). Feeds every 30 min for 4 h after 2 h of cycling.
+func TestCalibrationIntakeRate(t *testing.T) {
+	rate := func(gPerKgPerH float64) float64 {
+		return refuelRate(t, 70, 120, "pct:70", 4, func(int) float64 { return gPerKgPerH / 2 * 70 })
+	}
+	low, high := rate(0.8), rate(1.2)
+	t.Logf("0.8 g/kg/h: %.1f, 1.2 g/kg/h: %.1f mmol/kg ww/h", low, high)
+	if high < 1.1*low {
+		t.Errorf("1.2 g/kg/h gives %.1f, 0.8 gives %.1f: want clearly more at 1.2", high, low)
+	}
+}
+
+// The one-day loading finding says what the model reaches, never "high"
+// glycogen below the loaded band (Bergström 1967; Sherman 1981, from
+// memory: 150–200+ mmol/kg after loading).
+func TestOneDayLoadingFindingMatchesTheModel(t *testing.T) {
+	evStart := time.Date(2027, 3, 11, 7, 3, 0, 0, calibrationZone)
+	p := mustCompute(t, Request{
+		Kind: KindLoading, Protocol: ProtocolOneDay, TaperDays: 1,
+		Athlete: Athlete{Sex: "male", BodyMassKg: 70, HeightCm: ptr(178.0), BodyFatPct: ptr(14.0)},
+		Event:   &Event{StartsAt: evStart, Modality: "cycle", ExpectedDurationMin: 150, IntensityPctVO2max: ptr(70.0)},
+	})
+	f := oneFinding(t, p, "one-day-loading", "plan")
+	d := p.Glycogen.WorkingMuscleMmolPerKgStart
+	want := "stays below the loaded band"
+	if d >= 150 {
+		want = "is in the loaded band"
+	}
+	if !strings.Contains(f.Message, want) || strings.Contains(f.Message, "high muscle glycogen") {
+		t.Errorf("start density %.0f mmol/kg, finding %q", d, f.Message)
+	}
+}
