@@ -279,3 +279,21 @@ func TestOneDayLoadingFindingMatchesTheModel(t *testing.T) {
 		t.Errorf("start density %.0f mmol/kg, finding %q", d, f.Message)
 	}
 }
+
+// ACSM/AND/DC 2016: carbohydrate loading is for events over 90 min, so an
+// event of exactly 90 min gets the not-needed finding and one of 91 min
+// the finding that loading suits it.
+func TestLoadingBoundaryIsOverNinetyMinutes(t *testing.T) {
+	for _, c := range []struct {
+		min  float64
+		code string
+	}{{90, "loading-not-needed"}, {91, "loading-event-long"}} {
+		p := mustCompute(t, Request{
+			Kind: KindLoading, Protocol: ProtocolTwoDay,
+			Athlete: Athlete{Sex: "female", BodyMassKg: 60, HeightCm: ptr(168.0)},
+			Event: &Event{StartsAt: time.Date(2027, 5, 2, 9, 0, 0, 0, calibrationZone), Modality: "run",
+				ExpectedDurationMin: c.min},
+		})
+		oneFinding(t, p, c.code, "plan")
+	}
+}

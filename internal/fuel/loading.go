@@ -50,7 +50,7 @@ func (p *planner) loading() {
 			dps[i] = p.recoveryDay(dt)
 		}
 	}
-	if p.ev.ExpectedDurationMin < gLoadingEvent.Min {
+	if p.ev.ExpectedDurationMin <= gLoadingEvent.Min { // loading suits events *over* 90 min
 		p.find("loading-not-needed", LevelNote, "plan", SrcACSM,
 			"Carbohydrate loading is for events over %.0f min; this event is expected to last %.0f min. "+
 				"Fuelling up with %.0f–%.0f g/kg in the 24 h before is enough.",

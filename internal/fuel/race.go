@@ -211,7 +211,7 @@ func duringBandRange(band string) (lo, hi float64, src string) {
 func (p *planner) recoveryDay(date time.Time) dayPlan {
 	dp := p.trainingDay(date, RoleRecovery)
 	d := &dp.day
-	if p.ev.ExpectedDurationMin >= gLoadingEvent.Min && d.BandMaxGPerKg < gBandModerate.Max {
+	if p.ev.ExpectedDurationMin > gLoadingEvent.Min && d.BandMaxGPerKg < gBandModerate.Max {
 		b := bands[2]
 		d.LoadBand = b.name
 		d.BandMinGPerKg, d.BandMaxGPerKg = b.g.Min, b.g.Max
