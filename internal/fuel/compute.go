@@ -63,8 +63,9 @@ type planner struct {
 	occNotes     []occasionNote
 	start        simState // startState, once computed
 	haveStart    bool
-	preMealNight bool // the pre-event meal could only go in the night hours
-	eventExtras       // multi-sport legs, stages, long events and sessions
+	preMealNight bool    // the pre-event meal could only go in the night hours
+	massGainG    float64 // glycogen the load adds to the usual state at the start
+	eventExtras          // multi-sport legs, stages, long events and sessions
 }
 
 // Compute builds the plan a request asks for. Bad input yields a

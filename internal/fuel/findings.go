@@ -147,8 +147,8 @@ func (p *planner) finish() {
 	}
 	if p.plan.ExpectedMassGainKg != nil {
 		p.find("mass-gain", LevelNote, "plan", SrcOlsson,
-			"Expect body mass to rise by about %g kg over the load: glycogen gained plus about %g g of water stored with each gram.",
-			*p.plan.ExpectedMassGainKg, gWater.Min)
+			"Expect body mass at the start to be about %g–%g kg above the usual diet's: about %.0f g more glycogen, stored with %g–%g g of water per gram. Expected, not a sign of fat gain.",
+			*p.plan.ExpectedMassGainKg, *p.plan.ExpectedMassGainKgMax, p.massGainG, gWater.Min, gWater.Max)
 	}
 	p.finishEvents()
 	for _, c := range p.req.Cautions {

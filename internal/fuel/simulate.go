@@ -184,10 +184,13 @@ func (p *planner) eventSimulation(first, loadStart, evDay time.Time, loading boo
 		us := p.sb.simulate(p.startState(), from, start, ex, usual, nil, 3600, p.loc)
 		u := math.Round(p.sb.muscleG(us))
 		g.UsualIntakeMuscleGStart = &u
-		gained := (p.sb.muscleG(sStart) + sStart.LiverG) - (p.sb.muscleG(sLoad) + sLoad.LiverG)
-		kg := math.Max(0, gained*(1+gWater.Min)/1000)
-		kg = math.Round(kg*10) / 10
-		p.plan.ExpectedMassGainKg = &kg
+		// The gain a dietitian explains is the glycogen the load adds to
+		// the athlete's usual state at the start line, with 3–4 g of water
+		// per g (Olsson & Saltin; Shiose 2023).
+		p.massGainG = math.Max(0, (p.sb.muscleG(sStart)+sStart.LiverG)-(p.sb.muscleG(us)+us.LiverG))
+		lo := math.Round(p.massGainG*(1+gWater.Min)/100) / 10
+		hi := math.Round(p.massGainG*(1+gWater.Max)/100) / 10
+		p.plan.ExpectedMassGainKg, p.plan.ExpectedMassGainKgMax = &lo, &hi
 	}
 }
 

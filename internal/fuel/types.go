@@ -123,8 +123,11 @@ type Plan struct {
 	Repletion          *Repletion    `json:"repletion"`
 	Glycogen           *Glycogen     `json:"glycogen"`
 	ExpectedMassGainKg *float64      `json:"expected_mass_gain_kg"`
-	Findings           []Finding     `json:"findings"`
-	Caution            string        `json:"caution"`
+	// ExpectedMassGainKgMax is the top of the range: ExpectedMassGainKg
+	// counts 3 g of water per g of glycogen gained, this one 4.
+	ExpectedMassGainKgMax *float64  `json:"expected_mass_gain_kg_max"`
+	Findings              []Finding `json:"findings"`
+	Caution               string    `json:"caution"`
 }
 
 // MarshalJSON writes fat_free_mass_kg as null when it is unknown.

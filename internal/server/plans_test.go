@@ -64,12 +64,12 @@ func TestCreateEachKindOfPlan(t *testing.T) {
 		contains []string
 	}{
 		{"loading", marathoner, planForm("loading", "58", "event_id", itoa64(demo.IDs.Events["marathon"])), fuel.KindLoading,
-			[]string{"Two-day carbohydrate loading for Fjordby Spring Marathon", "Pre-event meal", "Expected glycogen at the start", "Expected body-mass gain", "chart-gkg", "chart-glycogen"}},
+			[]string{"Two-day carbohydrate loading for Fjordby Spring Marathon", "Pre-event meal", "Expected glycogen at the start", "mmol/kg wet muscle", "Expected body-mass gain", "chart-gkg", "chart-glycogen"}},
 		{"race", marathoner, planForm("race", "58", "event_id", itoa64(demo.IDs.Events["marathon"])), fuel.KindRace,
 			[]string{"Race-day fuelling for Fjordby Spring Marathon", "In-event carbohydrate", `name="during_gph"`}},
 		{"repletion", demo.IDs.Clients["rower"], planForm("repletion", "88", "session_end", "2027-03-02T09:30",
 			"next_start", "2027-03-02T15:30", "time_zone", "Europe/London"), fuel.KindRepletion,
-			[]string{"Repletion window", "repletion-feeds", "Europe/London"}},
+			[]string{"Repletion window", "repletion-feeds", "Europe/London", "mmol/kg wet muscle"}},
 		{"week", demo.IDs.Clients["cyclist"], planForm("week", "71", "start_date", "2027-03-01", "time_zone", "Europe/Madrid"), fuel.KindWeek,
 			[]string{"Training week from Mon 1 Mar 2027", "plan-days"}},
 	}

@@ -180,7 +180,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 	}
 	if g := plan.Glycogen; g != nil {
 		pv.Glycogen = append(pv.Glycogen, web.Fact{Label: "Expected glycogen at the start",
-			Value:    fmt.Sprintf("muscle %s g of %s g possible; liver %s g", web.Num(g.MuscleGStart, 0), web.Num(g.MuscleGCapacity, 0), web.Num(g.LiverGStart, 0)),
+			Value:    fmt.Sprintf("muscle %s g of %s g possible%s; liver %s g", web.Num(g.MuscleGStart, 0), web.Num(g.MuscleGCapacity, 0), density(g.WorkingMuscleMmolPerKgStart), web.Num(g.LiverGStart, 0)),
 			Findings: take("glycogen")})
 		if g.UsualIntakeMuscleGStart != nil {
 			pv.Glycogen[0].Hint = "With the athlete’s usual intake instead of this plan: muscle " + web.Num(*g.UsualIntakeMuscleGStart, 0) + " g."
@@ -199,6 +199,9 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 	}
 	if plan.ExpectedMassGainKg != nil {
 		pv.MassGain = web.Num(*plan.ExpectedMassGainKg, 1) + " kg"
+		if hi := plan.ExpectedMassGainKgMax; hi != nil && *hi != *plan.ExpectedMassGainKg {
+			pv.MassGain = web.Num(*plan.ExpectedMassGainKg, 1) + "–" + web.Num(*hi, 1) + " kg"
+		}
 	}
 	if rp := plan.Repletion; rp != nil {
 		val := fmt.Sprintf("%s h between sessions. ", web.Num(rp.GapH, 1))
@@ -208,7 +211,10 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 			val += "Long enough for the day’s normal targets; no speedy protocol."
 		}
 		pv.Repletion = &web.Fact{Label: "Repletion window", Value: val, Findings: take("repletion"),
-			Hint: fmt.Sprintf("Expected muscle glycogen at the next start: %s g of %s g possible.", web.Num(rp.MuscleGAtNextStart, 0), web.Num(rp.MuscleGCapacity, 0))}
+			Hint: fmt.Sprintf("Expected muscle glycogen at the next start: %s g of %s g possible%s.", web.Num(rp.MuscleGAtNextStart, 0), web.Num(rp.MuscleGCapacity, 0), density(rp.WorkingMuscleMmolPerKgAtNextStart))}
+		if rp.WorkingMuscleMmolPerKgAtEnd > 0 {
+			pv.Repletion.Hint += " Working muscle at the session’s end: " + web.Num(rp.WorkingMuscleMmolPerKgAtEnd, 0) + " mmol/kg."
+		}
 		for i, fd := range rp.Feeds {
 			date := menu.FeedDate(plan, fd.At)
 			pv.RepletionFeeds = append(pv.RepletionFeeds, web.FeedView{
@@ -395,4 +401,13 @@ func (s *Server) clientBodyMassChart(r *http.Request, c store.Client, history []
 		return nil, err
 	}
 	return web.ChartFigure(svg, "chart-body-mass", "Body mass over time."), nil
+}
+
+// density is the working muscle's glycogen density beside the grams, in
+// the unit studies report; plans stored before it was computed have none.
+func density(mmolPerKg float64) string {
+	if mmolPerKg <= 0 {
+		return ""
+	}
+	return " (working muscle " + web.Num(mmolPerKg, 0) + " mmol/kg wet muscle)"
 }

@@ -194,7 +194,11 @@ func (d *doc) eventFigures() {
 		}
 	}
 	if p.ExpectedMassGainKg != nil {
-		rows = append(rows, pair{"Expected body-mass gain", num(*p.ExpectedMassGainKg, 1) + " kg, from glycogen stored with its water; expected, not a sign of fat gain."})
+		gain := num(*p.ExpectedMassGainKg, 1)
+		if hi := p.ExpectedMassGainKgMax; hi != nil && *hi != *p.ExpectedMassGainKg {
+			gain += "–" + num(*hi, 1)
+		}
+		rows = append(rows, pair{"Expected body-mass gain", gain + " kg above the usual diet, from glycogen stored with its water; expected, not a sign of fat gain."})
 	}
 	if len(rows) == 0 {
 		return
