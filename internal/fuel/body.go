@@ -13,6 +13,13 @@ type Body struct {
 	LiverCapG     float64 // liver glycogen when full and fed
 	VO2max        float64 // ml/kg/min, 0 when unknown
 	WorkingMethod string
+	// BoerKg is the Boer estimate when height was given but the estimate
+	// is unusable (not above 0 and below body mass); 0 otherwise.
+	BoerKg float64
+	// StoresBasisKg is the body mass the per-kg store shares are applied
+	// to: body mass, or, with body fat measured, the mass of a reference
+	// body of the same fat-free mass.
+	StoresBasisKg float64
 }
 
 // BoerLBM is the Boer (1984) lean body mass estimate in kg from mass (kg)
@@ -39,15 +46,25 @@ func NewBody(a Athlete, modality string) Body {
 	case a.HeightCm != nil:
 		b.FFMKg = BoerLBM(a.Sex, a.BodyMassKg, *a.HeightCm)
 		b.FFMMethod = FFMBoer
-		if b.FFMKg <= 0 || b.FFMKg > a.BodyMassKg {
+		if b.FFMKg <= 0 || b.FFMKg >= a.BodyMassKg {
+			b.BoerKg = b.FFMKg
 			b.FFMKg, b.FFMMethod = 0, FFMNone
 		}
 	}
-	muscleShare, legShare := gMuscleFemale.Min, gLegsFemale.Min
+	muscleShare, legShare, refFat := gMuscleFemale.Min, gLegsFemale.Min, gRefFat.Min
 	if a.Sex == "male" {
-		muscleShare, legShare = gMuscleMale.Min, gLegsMale.Min
+		muscleShare, legShare, refFat = gMuscleMale.Min, gLegsMale.Min, gRefFat.Max
 	}
-	b.SkeletalKg = a.BodyMassKg * muscleShare
+	// Muscle and liver follow fat-free mass, not fat: with body fat
+	// measured, the per-kg shares apply to a reference body of the same
+	// fat-free mass (the Boer estimate is itself from mass and height, so
+	// it adds nothing here).
+	basis := a.BodyMassKg
+	if b.FFMMethod == FFMMeasured {
+		basis = b.FFMKg / (1 - refFat)
+	}
+	b.StoresBasisKg = basis
+	b.SkeletalKg = basis * muscleShare
 	switch modality {
 	case "swim":
 		b.WorkingKg = b.SkeletalKg * gWorkSwim.Min
@@ -59,10 +76,10 @@ func NewBody(a Athlete, modality string) Body {
 		b.WorkingKg = b.SkeletalKg * gWorkTri.Min
 		b.WorkingMethod = "triathlon share of skeletal muscle"
 	default:
-		b.WorkingKg = a.BodyMassKg * legShare
+		b.WorkingKg = basis * legShare
 		b.WorkingMethod = "leg muscle"
 	}
-	b.LiverCapG = gModelLiver.Min * a.BodyMassKg
+	b.LiverCapG = gModelLiver.Min * basis
 	if a.VO2maxMlKgMin != nil {
 		b.VO2max = *a.VO2maxMlKgMin
 	}

@@ -2,6 +2,7 @@ package fuel
 
 import (
 	"math"
+	"strings"
 	"testing"
 	"time"
 )
@@ -178,5 +179,50 @@ func TestMarathonWall(t *testing.T) {
 	// Sports Med 2014;44 Suppl 1:S25–S33) the stores last longer.
 	if g.RunsOutWithIntakeAtKm != nil && *g.RunsOutWithIntakeAtKm <= km {
 		t.Errorf("with intake the stores run out at %.1f km, not later than %.1f km without", *g.RunsOutWithIntakeAtKm, km)
+	}
+}
+
+// Muscle and liver glycogen live in lean tissue (REFERENCES.md, common
+// practice: muscle glycogen 1–2% of muscle mass; liver 5–6% of liver mass),
+// so with body fat measured, two women of the same fat-free mass hold the
+// same stores whatever their fat; the g/kg of total mass differs.
+func TestStoresFollowFatFreeMass(t *testing.T) {
+	lean := NewBody(Athlete{Sex: "female", BodyMassKg: 60, BodyFatPct: ptr(20.0)}, "run")  // FFM 48 kg
+	heavy := NewBody(Athlete{Sex: "female", BodyMassKg: 80, BodyFatPct: ptr(40.0)}, "run") // FFM 48 kg
+	near(t, "skeletal muscle", heavy.SkeletalKg, lean.SkeletalKg, 1e-9)
+	near(t, "working muscle", heavy.WorkingKg, lean.WorkingKg, 1e-9)
+	near(t, "liver capacity", heavy.LiverCapG, lean.LiverCapG, 1e-9)
+	unmeasured := NewBody(Athlete{Sex: "female", BodyMassKg: 80}, "run")
+	if unmeasured.SkeletalKg <= heavy.SkeletalKg {
+		t.Errorf("without body fat, 80 kg gives %.1f kg muscle, not more than %.1f kg at 40%% fat", unmeasured.SkeletalKg, heavy.SkeletalKg)
+	}
+}
+
+// Sedlock DA 2008: 10 g/kg lean mass; for very high body fat a finding
+// gives that basis: 10 × 48 kg = 480 g.
+func TestVeryHighBodyFatGivesTheFatFreeBasis(t *testing.T) {
+	req := Request{Kind: KindLoading, Protocol: ProtocolTwoDay,
+		Athlete: Athlete{Sex: "female", BodyMassKg: 80, BodyFatPct: ptr(40.0)},
+		Event:   &Event{StartsAt: time.Date(2027, 5, 2, 9, 0, 0, 0, time.UTC), Modality: "run", ExpectedDurationMin: 200}}
+	f := oneFinding(t, mustCompute(t, req), "body-fat-extreme", "plan")
+	if !strings.Contains(f.Message, "480 g") || !strings.Contains(f.Message, "very high") {
+		t.Errorf("finding %q", f.Message)
+	}
+	req.Athlete.BodyFatPct = ptr(25.0)
+	if fs := findingsOf(mustCompute(t, req), "body-fat-extreme"); len(fs) != 0 {
+		t.Errorf("25%% body fat for a woman flagged: %v", fs)
+	}
+}
+
+// Boer 1984: a man of 25 kg at 230 cm gives 0.407·25 + 0.267·230 − 19.2
+// = 52.4 kg of lean mass, more than his body mass, so the estimate is
+// unusable; the message names the height and the estimate, not an absent
+// height.
+func TestUnusableBoerEstimateSaysWhy(t *testing.T) {
+	req := Request{Kind: KindRace, Athlete: Athlete{Sex: "male", BodyMassKg: 25, HeightCm: ptr(230.0)},
+		Event: &Event{StartsAt: time.Date(2027, 5, 2, 9, 0, 0, 0, time.UTC), Modality: "run", ExpectedDurationMin: 60}}
+	f := oneFinding(t, mustCompute(t, req), "fat-free-mass-unknown", "plan")
+	if !strings.Contains(f.Message, "Height was given") || !strings.Contains(f.Message, "52.4 kg") {
+		t.Errorf("finding %q", f.Message)
 	}
 }

@@ -86,10 +86,16 @@ func overrideWord(overridden bool) string {
 // leave empty.
 func (p *planner) finish() {
 	mass := p.body.MassKg
-	if p.body.FFMMethod == FFMNone {
+	switch {
+	case p.body.FFMMethod == FFMNone && p.req.Athlete.HeightCm != nil:
+		p.find("fat-free-mass-unknown", LevelNote, "plan", SrcBoer,
+			"Height was given, but the Boer estimate of lean mass from it (%.1f kg) is not between 0 and the body mass of %g kg, so it cannot be used: fat-free mass and energy availability are not computed. Measure body fat for them.",
+			p.body.BoerKg, mass)
+	case p.body.FFMMethod == FFMNone:
 		p.find("fat-free-mass-unknown", LevelNote, "plan", SrcBoer,
 			"Neither body fat nor height was given, so fat-free mass and energy availability are not computed.")
 	}
+	p.checkBodyFat()
 	for i := range p.plan.Days {
 		p.checkDay(&p.plan.Days[i])
 	}
@@ -493,4 +499,28 @@ func (p *planner) checkRepletion(r *Repletion) {
 	p.find("repletion-glycogen", LevelNote, "repletion", SrcJentjens,
 		"Working-muscle glycogen is expected to rise from about %g g after the session to %g g at the next start (all muscle %g g of about %g g when full); synthesis is at most about %g–%g mmol/kg/h.",
 		r.WorkingMuscleGAtEnd, r.WorkingMuscleGAtNextStart, r.MuscleGAtNextStart, r.MuscleGCapacity, gResynthMax.Min, gResynthMax.Max)
+}
+
+// checkBodyFat says, for very low or very high measured body fat, that
+// g/kg of total body mass misleads, and gives the fat-free-mass basis.
+func (p *planner) checkBodyFat() {
+	bf := p.req.Athlete.BodyFatPct
+	if bf == nil || p.body.FFMKg <= 0 {
+		return
+	}
+	lim := gFatExtremeF
+	if p.body.Sex == "male" {
+		lim = gFatExtremeM
+	}
+	share := *bf / 100
+	if share >= lim.Min && share <= lim.Max {
+		return
+	}
+	word := "very low"
+	if share > lim.Max {
+		word = "very high"
+	}
+	p.find("body-fat-extreme", LevelNote, "plan", SrcSedlock,
+		"Body fat of %g%% is %s (outside %.0f–%.0f%%): g/kg of total body mass misleads here. On fat-free mass (%.1f kg) the loading guide of %g g/kg lean mass is %.0f g a day; this plan's muscle and liver stores follow fat-free mass.",
+		*bf, word, lim.Min*100, lim.Max*100, p.body.FFMKg, gWomenFFM.Min, gWomenFFM.Min*p.body.FFMKg)
 }

@@ -130,6 +130,9 @@ var coreGuidelines = []Guideline{
 	// Model choices (no single reference; see model.go).
 	{"model.typical-density", "starting muscle glycogen density when nothing else is known (middle of the typical band)", 100, 100, "mmol/kg wet muscle", SrcModel},
 	{"model.capacity-density", "asymptote of muscle glycogen density the synthesis model approaches (loaded band's '200+')", 220, 220, "mmol/kg wet muscle", SrcModel},
+	{"model.reference-fat", "body fat of the reference bodies the per-kg muscle, leg and liver shares describe (women Min, men Max): with body fat measured, the shares apply to a body of the same fat-free mass at this fat", 0.25, 0.15, "share of body mass", SrcModel},
+	{"model.body-fat-extreme", "body fat outside which g/kg of total body mass misleads and a finding gives the fat-free-mass basis, women", 0.15, 0.35, "share of body mass (women)", SrcModel},
+	{"model.body-fat-extreme-men", "the same bounds for men", 0.08, 0.25, "share of body mass", SrcModel},
 	{"model.liver-per-kg", "liver glycogen capacity per kg body mass (gives 112 g at 70 kg, inside 100–120 g)", 1.6, 1.6, "g/kg", SrcModel},
 	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 1.5 h time constant (86% of a meal within 3 h, 93% within 4 h: the 1–4 h pre-event meal timing), at most at the exogenous oxidation ceiling of multiple transportable carbohydrate, 1.75 g/min (Jeukendrup 2014; mixed meals hold glucose and fructose sources)", 105, 1.5, "g/h; h", SrcModel},
 	{"model.window-boost", "post-exercise window of synthesis: the rested rate is this share (Min) of the rate just after exercise, the rest decaying with a time constant (Max), so that feeding 2 h late lowers synthesis over the first 2 h of feeding by about a third (Ivy 1988 measured roughly a half)", 0.35, 1.5, "share; h", SrcModel},
@@ -249,6 +252,9 @@ var (
 	gModelTypical  = guideline("model.typical-density")
 	gModelCapacity = guideline("model.capacity-density")
 	gModelLiver    = guideline("model.liver-per-kg")
+	gRefFat        = guideline("model.reference-fat")
+	gFatExtremeF   = guideline("model.body-fat-extreme")
+	gFatExtremeM   = guideline("model.body-fat-extreme-men")
 	gModelGut      = guideline("model.gut-absorption")
 	gModelBoost    = guideline("model.window-boost")
 	gModelSupply   = guideline("model.synthesis-supply")
