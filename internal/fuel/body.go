@@ -124,13 +124,13 @@ func ChoShare(pctVO2max float64) float64 {
 	default:
 		s = gShare65.Min + (pctVO2max-65)*(gShare85.Min-gShare65.Min)/20
 	}
-	return math.Max(0.05, math.Min(0.95, s))
+	return math.Max(gShareClamp.Min, math.Min(gShareClamp.Max, s))
 }
 
 // kcalPerLitreO2 is the Weir energy of one litre of oxygen at the RER that
 // a carbohydrate share implies (non-protein RER ≈ 0.7 + 0.3 × share).
 func kcalPerLitreO2(share float64) float64 {
-	rer := 0.7 + 0.3*share
+	rer := gRER.Min + (gRER.Max-gRER.Min)*share
 	return WeirKcal(1, rer)
 }
 
@@ -190,22 +190,21 @@ func sessionKcalPerH(b Body, modality string, pct float64) float64 {
 
 // defaultRaceIntensity is %VO2max by event duration when none is given.
 func defaultRaceIntensity(min float64) float64 {
-	switch {
-	case min <= 15:
-		return 95
-	case min <= 45:
-		return 90
-	case min <= 90:
-		return 85
-	case min <= 180:
-		return 80
-	case min <= 300:
-		return 72
-	case min <= 600:
-		return 65
+	for _, g := range raceIntensity {
+		if min <= g.Min {
+			return g.Max
+		}
 	}
-	return 55
+	return raceIntensity[len(raceIntensity)-1].Max
 }
+
+// raceIntensity is the model.race-intensity.N rows, shortest first.
+var raceIntensity = func() (out [7]Guideline) {
+	for i := range out {
+		out[i] = guideline("model.race-intensity." + string(rune('0'+i)))
+	}
+	return out
+}()
 
 // EventEnergy is the energy of an event in kcal and how it was found:
 // running ≈ 1 kcal/kg/km over the distance; cycling from mechanical work

@@ -20,6 +20,7 @@ const (
 	SrcBussau        = "Bussau VA et al. Eur J Appl Physiol 2002;87:290–295 (from memory)"
 	SrcVanLoon       = "van Loon LJ et al. Am J Clin Nutr 2000;72:106–111 (from memory)"
 	SrcIvy           = "Ivy JL et al. J Appl Physiol 1988;64:1480–1485 (from memory)"
+	SrcIvy2004       = "Ivy JL. J Sports Sci Med 2004;3:131–138 (review)"
 	SrcIOC           = "IOC consensus statement on REDs (Mountjoy M et al. Br J Sports Med 2018;52:687–697; 2023 update)"
 	SrcIUPAC         = "IUPAC standard atomic weights"
 	SrcCommon        = "common practice"
@@ -152,7 +153,6 @@ var coreGuidelines = []Guideline{
 	{"model.rest-cho-ox", "resting and daily-living carbohydrate use at typical stores, scaled in proportion to stores / typical so intake sets the level stores settle at", 0.17, 0.17, "g/kg/h", SrcModel},
 	{"model.resynthesis-peak", "synthesis rate of empty muscle just after exercise with unlimited glucose supply; with the window and supply terms it gives the 5–8 (Jentjens & Jeukendrup), 8–10 wet (Flynn 2020, Wallis 2008, Pedersen 2008) and one-day loading (Fairchild 2002) rates", 24, 24, "mmol/kg wet muscle/h", SrcModel},
 	{"model.cover-easy", "share of carbohydrate use intake can cover at easy efforts (40% VO2max and below); falls to 0.35 at 67% VO2max (≈80% of maximum heart rate)", 0.6, 0.6, "share", SrcModel},
-	{"model.race-intensity", "race intensity when none is given, by duration: ≤15 min 95, ≤45 min 90, ≤90 min 85, ≤3 h 80, ≤5 h 72, ≤10 h 65, else 55", 55, 95, "% VO2max", SrcModel},
 	{"during.long-floor", "over 2.5 h, the usual practical intake is 60–90 g/h", 60, 90, "g/h", SrcCommon},
 	{"pre-event.earliest", "earliest practical time for a pre-event meal", 5, 5, "h (05:00)", SrcCommon},
 	{"load.target.two-day", "target on two-day load days (inside 10–12)", 10.5, 10.5, "g/kg", SrcModel},
@@ -160,6 +160,28 @@ var coreGuidelines = []Guideline{
 	{"protein.target", "daily protein target (inside 1.2–2.0)", 1.6, 1.6, "g/kg/day", SrcModel},
 	{"fat.share", "fat share of energy when no energy target is known: 25% on ordinary days, 22% on load days (both above the 20% floor)", 0.22, 0.25, "share of energy", SrcModel},
 	{"recovery.feed", "recovery feed after an event or hard session", 1.0, 1.0, "g/kg", SrcCommon},
+	// Thresholds of the pipeline, each where the code reads it.
+	{"model.intensity-factor", "a session's effective minutes are its minutes × (%VO2max − Min) / Max: 1 at 65%, 0.5 at 50%, 1.5 at 80%", 35, 30, "% VO2max; % per unit", SrcModel},
+	{"model.intensity-factor-clamp", "the intensity factor is held between these", 0.3, 2, "factor", SrcModel},
+	{"model.load-band-minutes", "day's band by effective minutes: under Min light, under Max moderate, else high (about 1 h a day moderate is the moderate band)", 45, 90, "effective min", SrcModel},
+	{"model.load-band-very-high", "the very high band: over Min training minutes (ACSM's 'over 4–5 h a day') or Max effective minutes and more", 240, 300, "min; effective min", SrcModel},
+	{"model.cover-intensity", "intake covers the easy share of carbohydrate use at or below Min %VO2max and the hard share (about a third) at or above Max (≈80% of maximum heart rate), linearly between", 40, 67, "% VO2max", SrcModel},
+	{"model.cho-share-clamp", "the carbohydrate share of energy is held between these", 0.05, 0.95, "share", SrcModel},
+	{"rer.nonprotein", "non-protein RER of pure fat (Min) and pure carbohydrate (Max) oxidation, from the Frayn equations (fat g/min = 0 at RER 1; carbohydrate ≈ 0 at RER 0.7)", 0.7, 1.0, "RER", SrcFrayn},
+	{"model.demanding-session", "a session is demanding at Min %VO2max or more (or by length, see model.demanding-session-min), and gets a recovery feed Max min after its end", 75, 30, "% VO2max; min after", SrcModel},
+	{"model.demanding-session-min", "a session of this many minutes or more is demanding; no ordinary meal in the 2 h (Max) after its end", 90, 2, "min; h", SrcModel},
+	{"pre-event.protein", "protein in the pre-event meal: half a usual meal's 0.3 g/kg, kept low so the meal empties from the stomach", 0.5, 0.5, "share of a meal's protein", SrcModel},
+	{"repletion.feed-every", "speedy refuelling feeds every 30 min", 30, 30, "min", SrcIvy2004},
+	{"model.next-start-clear", "no ordinary meal from Min h before the next start to Max h after its start", 1, 1.5, "h", SrcModel},
+	{"model.taper-days", "days a loading plan covers before the event when none are given", 7, 7, "days", SrcModel},
+	// Race intensity by duration when none is given: up to Min minutes, Max % VO2max.
+	{"model.race-intensity.0", "race intensity when none is given, up to 15 min", 15, 95, "min; % VO2max", SrcModel},
+	{"model.race-intensity.1", "race intensity when none is given, up to 45 min", 45, 90, "min; % VO2max", SrcModel},
+	{"model.race-intensity.2", "race intensity when none is given, up to 90 min", 90, 85, "min; % VO2max", SrcModel},
+	{"model.race-intensity.3", "race intensity when none is given, up to 3 h", 180, 80, "min; % VO2max", SrcModel},
+	{"model.race-intensity.4", "race intensity when none is given, up to 5 h", 300, 72, "min; % VO2max", SrcModel},
+	{"model.race-intensity.5", "race intensity when none is given, up to 10 h", 600, 65, "min; % VO2max", SrcModel},
+	{"model.race-intensity.6", "race intensity when none is given, longer", 1e9, 55, "min; % VO2max", SrcModel},
 	// The day-target line through effective training minutes (Min) and
 	// g/kg/day (Max), kept inside the day's band afterwards.
 	{"model.target-line.0", "day-target line: no training", 0, 3, "effective min; g/kg/day", SrcModel},
@@ -252,6 +274,19 @@ var (
 	gModelTypical  = guideline("model.typical-density")
 	gModelCapacity = guideline("model.capacity-density")
 	gModelLiver    = guideline("model.liver-per-kg")
+	gIntFactor     = guideline("model.intensity-factor")
+	gIntClamp      = guideline("model.intensity-factor-clamp")
+	gBandMinutes   = guideline("model.load-band-minutes")
+	gBandVeryHighM = guideline("model.load-band-very-high")
+	gCoverPct      = guideline("model.cover-intensity")
+	gShareClamp    = guideline("model.cho-share-clamp")
+	gRER           = guideline("rer.nonprotein")
+	gDemanding     = guideline("model.demanding-session")
+	gDemandingMin  = guideline("model.demanding-session-min")
+	gPreProtein    = guideline("pre-event.protein")
+	gRefuelEvery   = guideline("repletion.feed-every")
+	gNextClear     = guideline("model.next-start-clear")
+	gTaperDays     = guideline("model.taper-days")
 	gRefFat        = guideline("model.reference-fat")
 	gFatExtremeF   = guideline("model.body-fat-extreme")
 	gFatExtremeM   = guideline("model.body-fat-extreme-men")

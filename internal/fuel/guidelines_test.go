@@ -36,7 +36,8 @@ var allowedSources = map[string]bool{
 	"Kimber NE et al. Int J Sport Nutr Exerc Metab 2002;12(1):47–62":          true,
 	"Cuddy JS et al. Int J Sports Physiol Perform 2010;5(4):570 (first page)": true,
 	"Maughan RJ et al. IOC consensus statement: dietary supplements and the high-performance athlete. Br J Sports Med 2018;52:439–455 (table of supplements with good evidence)": true,
-	"Pedersen DJ et al. J Appl Physiol 2008;105:7–13": true,
+	"Pedersen DJ et al. J Appl Physiol 2008;105:7–13":  true,
+	"Ivy JL. J Sports Sci Med 2004;3:131–138 (review)": true,
 	// The diabetes consensus statements cited by the diabetes cautions are
 	// not yet in REFERENCES.md; the source text says "from memory".
 	SrcDiabetes: true,

@@ -17,7 +17,7 @@ func loadDaysOf(protocol string) int {
 func (p *planner) taperDays() int {
 	n := p.req.TaperDays
 	if n == 0 {
-		n = 7
+		n = int(gTaperDays.Min)
 	}
 	return n
 }

@@ -30,7 +30,7 @@ func (p *planner) eventDay(date time.Time, rate float64) dayPlan {
 			// overridden again as the day is built.
 			p.plan.PreEventMeal = pm
 		}
-		fixed = append(fixed, Feed{At: pm.At, Label: labelPreEvent, ChoG: pm.ChoG, ProteinG: math.Round(0.5 * gProteinMeal.Min * mass)})
+		fixed = append(fixed, Feed{At: pm.At, Label: labelPreEvent, ChoG: pm.ChoG, ProteinG: math.Round(gPreProtein.Min * gProteinMeal.Min * mass)})
 		blockFrom = pm.At.Add(-90 * time.Minute)
 	}
 	de := p.duringEventPlan(rate)

@@ -19,7 +19,7 @@ func (p *planner) repletion() {
 		winH := math.Min(gRepletionWin.Min, gapH)
 		p.repWinH = winH
 		windowEnd = end.Add(time.Duration(winH * float64(time.Hour)))
-		const every = 30 * time.Minute
+		every := time.Duration(gRefuelEvery.Min * float64(time.Minute))
 		n := int(math.Ceil(winH / every.Hours()))
 		if n < 1 {
 			n = 1
@@ -42,7 +42,7 @@ func (p *planner) repletion() {
 	last := midnight(next, p.loc)
 	nDays := int(math.Round(last.Sub(first).Hours()/24)) + 1
 	p.plan.Days = make([]Day, nDays)
-	blocked := []window{{end, windowEnd}, {next.Add(-time.Hour), next.Add(90 * time.Minute)}}
+	blocked := []window{{end, windowEnd}, {next.Add(-time.Duration(gNextClear.Min * float64(time.Hour))), next.Add(time.Duration(gNextClear.Max * float64(time.Hour)))}}
 	dps := make([]dayPlan, nDays)
 	for i, dt := range dateSeq(first, nDays) {
 		dp := p.trainingDay(dt, RoleRepletion)

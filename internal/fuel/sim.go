@@ -143,13 +143,14 @@ func synthRate(d, boostLeft, xGPerKgH float64) float64 {
 // cover at an intensity.
 func coverShare(pct float64) float64 {
 	hard, easy := gHardCover.Min, gCoverEasy.Min
+	lo, hi := gCoverPct.Min, gCoverPct.Max
 	switch {
-	case pct >= 67:
+	case pct >= hi:
 		return hard
-	case pct <= 40:
+	case pct <= lo:
 		return easy
 	}
-	return easy + (pct-40)*(hard-easy)/27
+	return easy + (pct-lo)*(hard-easy)/(hi-lo)
 }
 
 // exercise is one bout in the simulation.

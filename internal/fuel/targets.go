@@ -35,8 +35,10 @@ var bands = [...]band{
 	{BandVeryHigh, gBandVeryHigh},
 }
 
+// intensityFactor weighs a session's minutes by intensity
+// (model.intensity-factor, held inside model.intensity-factor-clamp).
 func intensityFactor(pct float64) float64 {
-	return math.Max(0.3, math.Min(2, (pct-35)/30))
+	return math.Max(gIntClamp.Min, math.Min(gIntClamp.Max, (pct-gIntFactor.Min)/gIntFactor.Max))
 }
 
 // dayLoad sums a day's effective minutes and training minutes.
@@ -52,11 +54,11 @@ func bandFor(effMin, trainMin float64) band {
 	switch {
 	case trainMin == 0:
 		return bands[0]
-	case effMin < 45:
+	case effMin < gBandMinutes.Min:
 		return bands[1]
-	case effMin < 90:
+	case effMin < gBandMinutes.Max:
 		return bands[2]
-	case trainMin <= 240 && effMin < 300:
+	case trainMin <= gBandVeryHighM.Min && effMin < gBandVeryHighM.Max:
 		return bands[3]
 	}
 	return bands[4]

@@ -56,12 +56,12 @@ func (p *planner) trainingDay(date time.Time, role string) dayPlan {
 		BandMinGPerKg: b.g.Min, BandMaxGPerKg: b.g.Max, ChoGPerKg: bandTarget(b, eff),
 	}}
 	for _, s := range p.sessionsOn(ds) {
-		if s.pct >= 75 || s.durMin >= 90 {
+		if s.pct >= gDemanding.Min || s.durMin >= gDemandingMin.Min {
 			// a demanding session: a recovery feed soon after it
 			end := s.start.Add(time.Duration(s.durMin * float64(time.Minute)))
-			dp.fixed = append(dp.fixed, Feed{At: end.Add(30 * time.Minute), Label: labelRecovery,
+			dp.fixed = append(dp.fixed, Feed{At: end.Add(time.Duration(gDemanding.Max * float64(time.Minute))), Label: labelRecovery,
 				ChoG: math.Round(gRecoveryFeed.Min * p.body.MassKg), ProteinG: math.Round(gProteinMeal.Min * p.body.MassKg)})
-			dp.blocked = append(dp.blocked, window{end, end.Add(2 * time.Hour)})
+			dp.blocked = append(dp.blocked, window{end, end.Add(time.Duration(gDemandingMin.Max * float64(time.Hour)))})
 		}
 	}
 	p.sessionFuel(&dp)
