@@ -226,3 +226,20 @@ func TestUnusableBoerEstimateSaysWhy(t *testing.T) {
 		t.Errorf("finding %q", f.Message)
 	}
 }
+
+// IOC consensus on REDs: under 30 kcal/kg FFM/day is low. A 70 kg man
+// (no height, no body fat) eating 3 g/kg on a day of 3.5 h hard running:
+// hard running is about 12.5 MET (Ainsworth 2011, activity value from
+// memory), 12.5 × 70 kg × 3.5 h ≈ 3,060 kcal of exercise, and a day of
+// 3 g/kg carbohydrate (840 kcal) with protein and fat cannot leave 30
+// kcal/kg FFM (about 1,700 kcal at 57 kg FFM) after it. The day is screened on an
+// estimated fat-free mass and gets a caution, not only a band note.
+func TestEnergyAvailabilityScreenedWithoutFatFreeMass(t *testing.T) {
+	req := Request{Kind: KindWeek, Athlete: Athlete{Sex: "male", BodyMassKg: 70}, StartDate: "2027-03-01", Days: 1,
+		Training:  []TrainingSession{{Date: "2027-03-01", Start: "08:00", DurationMin: 210, Modality: "run", Intensity: "hard"}},
+		Overrides: []DayOverride{{Date: "2027-03-01", ChoGPerKg: ptr(3.0)}}}
+	f := oneFinding(t, mustCompute(t, req), "energy-availability-estimated", "day:2027-03-01")
+	if f.Level != LevelCaution || !strings.Contains(f.Message, "estimated") {
+		t.Errorf("%s: %s", f.Level, f.Message)
+	}
+}

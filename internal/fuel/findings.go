@@ -317,6 +317,9 @@ func (p *planner) checkDay(d *Day) {
 				"Energy availability %g kcal/kg FFM/day is adequate (about %g or more).", *ea, gEAAdequate.Min)
 		}
 	}
+	if d.EnergyAvailability == nil && d.ExerciseEnergyKcal != nil && d.EnergyKcal > 0 {
+		p.screenEnergyAvailability(d, subj)
+	}
 	// Feeds: overrides, protein at main meals, long gaps.
 	var prevAt time.Time
 	for i, f := range d.Feeds {
@@ -523,4 +526,32 @@ func (p *planner) checkBodyFat() {
 	p.find("body-fat-extreme", LevelNote, "plan", SrcSedlock,
 		"Body fat of %g%% is %s (outside %.0f–%.0f%%): g/kg of total body mass misleads here. On fat-free mass (%.1f kg) the loading guide of %g g/kg lean mass is %.0f g a day; this plan's muscle and liver stores follow fat-free mass.",
 		*bf, word, lim.Min*100, lim.Max*100, p.body.FFMKg, gWomenFFM.Min, gWomenFFM.Min*p.body.FFMKg)
+}
+
+// screenEnergyAvailability screens a day's energy availability when
+// fat-free mass is unknown, on an estimate at the reference body fat
+// (model.reference-fat), and says it is an estimate: a day far short of
+// its training must not pass on its carbohydrate band alone (IOC).
+func (p *planner) screenEnergyAvailability(d *Day, subj string) {
+	refFat := gRefFat.Min
+	if p.body.Sex == "male" {
+		refFat = gRefFat.Max
+	}
+	ffm := p.body.MassKg * (1 - refFat)
+	ea := round1((d.EnergyKcal - *d.ExerciseEnergyKcal) / ffm)
+	lvl := LevelNote
+	switch {
+	case ea >= gEAAdequate.Min:
+		return
+	case ea < gEALow.Min && d.Role != RoleEvent:
+		lvl = LevelCaution
+	}
+	word := "between low (%g) and adequate (about %g)"
+	if ea < gEALow.Min {
+		word = "low (under %g; adequate is about %g)"
+	}
+	p.find("energy-availability-estimated", lvl, subj, SrcIOC,
+		"Fat-free mass is unknown; estimated at %.1f kg (%.0f%% body fat assumed), energy availability is about %g kcal/kg FFM/day, "+word+
+			": %g kcal eaten, %g kcal of exercise. Measure body fat to compute it.",
+		ffm, refFat*100, ea, gEALow.Min, gEAAdequate.Min, d.EnergyKcal, *d.ExerciseEnergyKcal)
 }
