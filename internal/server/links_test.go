@@ -166,9 +166,18 @@ func TestClientLinkShowsOnlyOwnPublishedPlan(t *testing.T) {
 		web.Num(today.ProteinG, 0)+" g", web.Num(today.FatG, 0)+" g", web.Num(today.EnergyKcal, 0)+" kcal",
 		today.Feeds[0].At.In(time.UTC).Format("15:04"), // London is on UTC in early March
 		web.Num(today.Feeds[0].ChoG, 0)+" g carbohydrate", "For example: 2 slices toast with jam",
-		"Coming days", "Keep to gluten-free foods", "The food ideas are examples only", "not medical advice")
+		"The days ahead", "Keep to gluten-free foods", "The food ideas are examples only", "not medical advice")
 	for _, d := range plan.Days[1:] {
 		r.mustContain(t, dayWords(d.Date), web.Num(d.ChoG, 0)+" g")
+	}
+	// The page leads with today's feeding times and what to eat; the day's
+	// totals follow, then the days ahead.
+	order := []string{"Today’s fuelling", `id="feeds"`, today.Feeds[0].At.In(time.UTC).Format("15:04"),
+		"For example: 2 slices toast with jam", `id="targets"`, "The days ahead"}
+	for i := 1; i < len(order); i++ {
+		if a, b := strings.Index(body, order[i-1]), strings.Index(body, order[i]); a < 0 || b < 0 || a > b {
+			t.Errorf("phone page: %q should come before %q (at %d and %d)", order[i-1], order[i], a, b)
+		}
 	}
 	for _, never := range []string{"Oskar", other.Name, "OTHER CLIENT FOOD", "STAFF NOTE", "ferritin", "Quill", "Other's week", "coeliac"} {
 		if strings.Contains(body, never) {
@@ -206,7 +215,7 @@ func TestClientLinkDraftIsNotShown(t *testing.T) {
 	if !strings.Contains(body, "Nothing planned for today") {
 		t.Fatalf("a draft-only client sees a plan\n%s", body)
 	}
-	for _, never := range []string{"DRAFT FOOD", "Today’s targets", web.Num(draft.Days[0].EnergyKcal, 0) + " kcal"} {
+	for _, never := range []string{"DRAFT FOOD", "Today’s fuelling", web.Num(draft.Days[0].EnergyKcal, 0) + " kcal"} {
 		if strings.Contains(body, never) {
 			t.Errorf("draft shows through: %q", never)
 		}
@@ -226,7 +235,7 @@ func TestClientLinkDraftIsNotShown(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, body = getPublic(t, a, "/c/"+token)
-	response{body: body}.mustContain(t, "Today’s targets", "PUBLISHED FOOD", web.Num(pub.Days[0].ChoG, 0)+" g")
+	response{body: body}.mustContain(t, "Today’s fuelling", "PUBLISHED FOOD", web.Num(pub.Days[0].ChoG, 0)+" g")
 	if strings.Contains(body, "DRAFT FOOD") {
 		t.Error("draft food shows next to the published plan")
 	}
@@ -240,7 +249,7 @@ func TestClientLinkNothingToday(t *testing.T) {
 	token := makeLink(t, b, c.ID, "")
 	_, body := getPublic(t, a, "/c/"+token)
 	response{body: body}.mustContain(t, "Nothing planned for today", "Your plan starts on Monday 8 March.", web.Num(plan.Days[0].ChoG, 0)+" g")
-	if strings.Contains(body, "Today’s targets") {
+	if strings.Contains(body, "Today’s fuelling") {
 		t.Error("targets shown on a day outside the plan")
 	}
 }
