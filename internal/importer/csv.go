@@ -175,11 +175,9 @@ func ReadCSV(data []byte, opt Options) (*Sheet, error) {
 		lines = append(lines, line)
 	}
 	sh.DataLines = len(records)
-	if !sh.Ready() {
-		return sh, nil
-	}
+	// The date question is asked together with any column question.
 	sh.settleDateOrder(records, opt.DateOrder)
-	if sh.DateOrderNeeded {
+	if !sh.Ready() {
 		return sh, nil
 	}
 	for i, rec := range records {

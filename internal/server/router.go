@@ -41,6 +41,7 @@ func (s *Server) routes() http.Handler {
 			s.mountPlanRoutes(r)
 			s.mountSheetRoutes(r)
 			s.mountLinkRoutes(r)
+			s.mountDataRoutes(r)
 
 			r.Group(func(r chi.Router) {
 				r.Use(s.requireAdmin)
