@@ -122,7 +122,10 @@ var synonyms = map[string]string{
 	"session date": FieldDate, "training date": FieldDate, "start date": FieldDate,
 
 	"mass": FieldMass, "body mass": FieldMass, "weight": FieldMass, "body weight": FieldMass, "bodyweight": FieldMass, "bm": FieldMass,
-	"unit": FieldUnit, "units": FieldUnit, "mass unit": FieldUnit, "weight unit": FieldUnit,
+	// Larder's own export: masses are in kg; the unit once typed is information only.
+	"entered unit": Ignore,
+	"source":       Ignore,
+	"unit":         FieldUnit, "units": FieldUnit, "mass unit": FieldUnit, "weight unit": FieldUnit,
 	"body fat": FieldBodyFat, "body fat %": FieldBodyFat, "body fat percent": FieldBodyFat, "fat %": FieldBodyFat, "bf %": FieldBodyFat, "bf": FieldBodyFat, "fat": FieldBodyFat,
 	"method": FieldMethod, "how measured": FieldMethod, "scale": FieldMethod,
 

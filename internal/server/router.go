@@ -42,6 +42,7 @@ func (s *Server) routes() http.Handler {
 			s.mountSheetRoutes(r)
 			s.mountLinkRoutes(r)
 			s.mountDataRoutes(r)
+			s.mountExportRoutes(r)
 
 			r.Group(func(r chi.Router) {
 				r.Use(s.requireAdmin)

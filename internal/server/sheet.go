@@ -79,6 +79,24 @@ func (s *Server) sheetPaper(w http.ResponseWriter, r *http.Request) (sheet.Paper
 }
 
 func (s *Server) writeSheet(w http.ResponseWriter, r *http.Request, c store.Client, p store.Plan, v store.PlanVersion, paper sheet.Paper) {
+	pdf, err := s.planSheetPDF(r, c, p, v, paper)
+	if err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	name := fmt.Sprintf("plan-sheet-%s-v%d", fileWord(c.Name), v.Version)
+	if v.Status == store.PlanDraft {
+		name += "-DRAFT"
+	}
+	w.Header().Set("Content-Type", "application/pdf")
+	w.Header().Set("Content-Disposition", `inline; filename="`+name+`.pdf"`)
+	w.Header().Set("Content-Length", strconv.Itoa(len(pdf)))
+	w.Header().Set("Cache-Control", "no-store") // a client's health record
+	_, _ = w.Write(pdf)
+}
+
+// planSheetPDF renders a plan version's sheet (also used by the record export).
+func (s *Server) planSheetPDF(r *http.Request, c store.Client, p store.Plan, v store.PlanVersion, paper sheet.Paper) ([]byte, error) {
 	ctx := r.Context()
 	sh := sheet.Sheet{
 		PracticeName: s.PracticeName(r), ClientName: c.Name, Title: p.Title,
@@ -105,8 +123,7 @@ func (s *Server) writeSheet(w http.ResponseWriter, r *http.Request, c store.Clie
 			start := e.StartsAt
 			sh.EventStart = &start
 		case !errors.Is(err, store.ErrNotFound): // a deleted event leaves the plan as it was
-			s.ServerError(w, r, err)
-			return
+			return nil, err
 		}
 	}
 	if sh.EventStart == nil && v.Request.Event != nil {
@@ -116,24 +133,14 @@ func (s *Server) writeSheet(w http.ResponseWriter, r *http.Request, c store.Clie
 	}
 	sugg, err := s.Store.FeedSuggestions(ctx, v.ID)
 	if err != nil {
-		s.ServerError(w, r, err)
-		return
+		return nil, err
 	}
 	sh.Suggestions = sugg
 	pdf, err := sheet.Render(sh, paper)
 	if err != nil {
-		s.ServerError(w, r, fmt.Errorf("plan %d version %d sheet: %w", p.ID, v.Version, err))
-		return
+		return nil, fmt.Errorf("plan %d version %d sheet: %w", p.ID, v.Version, err)
 	}
-	name := fmt.Sprintf("plan-sheet-%s-v%d", fileWord(c.Name), v.Version)
-	if v.Status == store.PlanDraft {
-		name += "-DRAFT"
-	}
-	w.Header().Set("Content-Type", "application/pdf")
-	w.Header().Set("Content-Disposition", `inline; filename="`+name+`.pdf"`)
-	w.Header().Set("Content-Length", strconv.Itoa(len(pdf)))
-	w.Header().Set("Cache-Control", "no-store") // a client's health record
-	_, _ = w.Write(pdf)
+	return pdf, nil
 }
 
 // fileWord makes a name safe for a file name: ASCII letters and digits,
