@@ -224,9 +224,26 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 		{"edit event", eventEdit},
 		{"new plan", clientURL + "/plans/new"},
 		{"plan (published)", planPage},
+		{"import", clientURL + "/import"},
+		{"export and erasure", clientURL + "/data"},
+		{"practice import", a.srv.URL + "/import"},
 	} {
 		axeVisit(t, ctx, src, p.name, p.url)
 	}
+	// An import preview, first with its questions open (an unknown column,
+	// an ambiguous date), then answered, with a row in error.
+	var demoUser int64
+	if err := a.st.Pool.QueryRow(context.Background(), `SELECT id FROM users WHERE lower(email) = lower($1)`, res.Email).Scan(&demoUser); err != nil {
+		t.Fatal(err)
+	}
+	up := store.Upload{CreatedBy: demoUser, ClientID: &marathoner, Kind: "body_mass",
+		Files: []store.UploadFile{{Name: "mass.csv", Content: []byte("date,mass,remark\n01/02/2027,61,\n03/02/2027,6x,\n")}}}
+	if err := a.st.SaveUpload(context.Background(), &up); err != nil {
+		t.Fatal(err)
+	}
+	preview := a.srv.URL + "/imports/" + itoa(up.ID)
+	axeVisit(t, ctx, src, "import preview with questions", preview)
+	axeVisit(t, ctx, src, "import preview", preview+"?date_order=dmy&map_remark=ignore")
 	axeVisit(t, ctx, src, "new body mass", clientURL+"/body-mass/new")
 	submitUnchecked(t, ctx, "new body mass with errors", "main form")
 	axeCheck(t, ctx, src, "new body mass with errors")
