@@ -157,7 +157,8 @@ type PlanView struct {
 	Days           []DayView
 	PreEvent       *Fact
 	During         *Fact
-	DuringName     string // form input name of the in-event g/h override
+	Race           RaceParts // legs, stages, hour blocks, caffeine
+	DuringName     string    // form input name of the in-event g/h override
 	DuringSugg     string
 	Glycogen       []Fact
 	Repletion      *Fact

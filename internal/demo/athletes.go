@@ -70,7 +70,13 @@ func athletes() []athlete {
 			},
 			events: []event{
 				{key: "stage-race", name: "Tour of the Three Valleys", zone: "Europe/Madrid", modality: "cycle", priority: "A",
-					inDays: 35, hour: 11, minute: 0, min: 250, days: 4, km: km(145), notes: "Four stages; figures are for one stage. Two mountain-top finishes."},
+					inDays: 35, hour: 11, minute: 0, min: 250, days: 4, km: km(145), notes: "Four stages over three days; a short time trial and a hilly stage share the last day. Two mountain-top finishes.",
+					stages: []demoStage{
+						{day: 0, hour: 11, minute: 0, km: 145, min: 250, watts: 225},
+						{day: 1, hour: 11, minute: 30, km: 170, min: 280, watts: 220},
+						{day: 2, hour: 9, minute: 30, km: 22, min: 32, watts: 320},
+						{day: 2, hour: 16, minute: 0, km: 110, min: 165, watts: 235},
+					}},
 			},
 		},
 		{

@@ -19,6 +19,7 @@ import (
 	"github.com/jackc/pgx/v5"
 
 	"larder/internal/auth"
+	"larder/internal/fuel"
 	"larder/internal/store"
 )
 
@@ -219,6 +220,12 @@ func (l *loader) athlete(a athlete) error {
 		} else if err != nil {
 			return err
 		}
+		if len(e.stages) > 0 {
+			// Stages are added to a race loaded before they were known.
+			if _, err := l.tx.Exec(l.ctx, `UPDATE events SET stages = $2 WHERE id = $1 AND stages = '[]'`, eid, e.stagesFrom(start)); err != nil {
+				return err
+			}
+		}
 		l.res.IDs.Events[e.key] = eid
 	}
 	return nil
@@ -258,6 +265,27 @@ type event struct {
 	key, name, zone, modality, priority, notes string
 	inDays, hour, minute, min, days            int
 	km                                         *float64
+	// stages, for a stage race: each stage from the first one's start.
+	stages []demoStage
+}
+
+// demoStage is one stage of a demo stage race: days and clock time after
+// the first stage's day, distance, duration and mean power.
+type demoStage struct {
+	day, hour, minute int
+	km, min, watts    float64
+}
+
+// stagesFrom turns a demo race's stages into the engine's.
+func (e event) stagesFrom(first time.Time) []fuel.Stage {
+	out := make([]fuel.Stage, 0, len(e.stages))
+	for _, s := range e.stages {
+		d := first.AddDate(0, 0, s.day)
+		km, w := s.km, s.watts
+		out = append(out, fuel.Stage{StartsAt: time.Date(d.Year(), d.Month(), d.Day(), s.hour, s.minute, 0, 0, first.Location()),
+			Modality: e.modality, DistanceKm: &km, ExpectedDurationMin: s.min, AveragePowerW: &w})
+	}
+	return out
 }
 
 // masses gives a measurement every 3-4 days over the last 8 weeks: a

@@ -151,7 +151,11 @@ func (d demoPlans) eventPlan(clientID, eventID int64, kind, protocol, title stri
 		return err
 	}
 	day := dateOf(e.LocalStart())
-	training, err := d.training(clientID, day.AddDate(0, 0, -21), day.AddDate(0, 0, 1))
+	last := day
+	if n := len(e.Stages); n > 0 {
+		last = dateOf(e.Stages[n-1].StartsAt.In(e.Location()))
+	}
+	training, err := d.training(clientID, day.AddDate(0, 0, -21), last.AddDate(0, 0, 1))
 	if err != nil {
 		return err
 	}
@@ -160,7 +164,11 @@ func (d demoPlans) eventPlan(clientID, eventID int64, kind, protocol, title stri
 		modality = "other"
 	}
 	req := fuel.Request{Kind: kind, Protocol: protocol, Athlete: ath, Training: training, TimeZone: e.TimeZone,
-		Event: &fuel.Event{StartsAt: e.LocalStart(), Modality: modality, DistanceKm: e.DistanceKm, ExpectedDurationMin: float64(e.ExpectedDurationMin)}}
+		Event: &fuel.Event{StartsAt: e.LocalStart(), Modality: modality, DistanceKm: e.DistanceKm, ExpectedDurationMin: float64(e.ExpectedDurationMin),
+			Segments: e.Segments, Stages: e.Stages}}
+	if len(e.Stages) > 0 {
+		req.Event.StartsAt = e.Stages[0].StartsAt.In(e.Location())
+	}
 	if kind == fuel.KindLoading {
 		req.TaperDays = 7
 	}

@@ -389,7 +389,7 @@ func (p *planner) checkStages() {
 			i+1, sp.Modality, sp.DurationMin, sp.StartsAt.Format("2006-01-02 15:04"), de.ChoGPerH, overrideWord(de.Overridden), word, lo, hi, sp.WorkingMuscleMmolPerKgStart)
 		if de.ChoGPerH > gDuring3060.Max {
 			p.find("multiple-transportable", LevelNote, subj, SrcACSMJeuk,
-				"Over %g g/h needs multiple transportable carbohydrates (glucose with fructose), practised in training.", gDuring3060.Max)
+				"Stage %d: over %g g/h needs multiple transportable carbohydrates (glucose with fructose), practised in training.", i+1, gDuring3060.Max)
 		}
 		if sp.RunsOutAtMin != nil {
 			p.find("stage-runs-out", LevelCaution, subj, SrcRapoport,

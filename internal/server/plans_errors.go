@@ -23,6 +23,7 @@ func mapRequestError(f forms.Form, err error) {
 		"athlete.vo2max_ml_kg_min": "vo2max", "event.intensity_pct_vo2max": "intensity_pct", "protocol": "protocol",
 		"session_end": "session_end", "next_start": "next_start", "time_zone": "time_zone", "start_date": "start_date",
 		"days": "days", "taper_days": "taper_days", "eating_occasions": "eating_occasions",
+		"caffeine_mg_per_kg": "caffeine_mg_per_kg",
 	}
 	for _, fe := range ve {
 		name, ok := names[fe.Field]

@@ -67,6 +67,7 @@ func overrideValues(req fuel.Request) forms.Form {
 	if req.DuringEventChoGPerH != nil {
 		v.Set(duringName, web.Num(*req.DuringEventChoGPerH, 1))
 	}
+	stageOverrideValues(v, req)
 	v.Set(massName, web.Num(req.Athlete.BodyMassKg, 2))
 	if req.Athlete.BodyFatPct != nil {
 		v.Set(fatName, web.Num(*req.Athlete.BodyFatPct, 1))
@@ -110,6 +111,7 @@ func decodeOverrides(values url.Values, req fuel.Request) (fuel.Request, forms.F
 	}
 	sort.Strings(names)
 	req.DuringEventChoGPerH = nil
+	req.StageOverrides = nil
 	// The body figures change only when their inputs were sent.
 	if _, sent := values[massName]; sent {
 		if x, ok := number(massName, values.Get(massName), 25, 250, "Body mass", "kg"); ok {
@@ -129,6 +131,7 @@ func decodeOverrides(values url.Values, req fuel.Request) (fuel.Request, forms.F
 			continue
 		}
 		switch {
+		case decodeStageOverride(f, &req, name, raw):
 		case name == duringName:
 			if x, ok := number(name, raw, 0, 150, "In-event carbohydrate", "g/h"); ok {
 				req.DuringEventChoGPerH = &x
@@ -325,6 +328,10 @@ func carriedValues(f forms.Form) []web.Carried {
 			label = "Body mass (kg)"
 		case name == fatName:
 			label = "Body fat (%)"
+		case strings.HasPrefix(name, stageGPHPrefix):
+			if i, err := strconv.Atoi(strings.TrimPrefix(name, stageGPHPrefix)); err == nil {
+				label = fmt.Sprintf("In-stage carbohydrate of stage %d (g/h)", i+1)
+			}
 		case strings.HasPrefix(name, "gkg_"):
 			label = "Carbohydrate on " + dayWords(strings.TrimPrefix(name, "gkg_")) + " (g/kg)"
 		case strings.HasPrefix(name, "occ_"):
@@ -347,7 +354,7 @@ func carriedValues(f forms.Form) []web.Carried {
 func overrideInputs(form url.Values) url.Values {
 	v := url.Values{}
 	for name, vals := range form {
-		if name == duringName || name == massName || name == fatName || strings.HasPrefix(name, "gkg_") || strings.HasPrefix(name, "occ_") ||
+		if name == duringName || name == massName || name == fatName || strings.HasPrefix(name, "gkg_") || strings.HasPrefix(name, "occ_") || strings.HasPrefix(name, stageGPHPrefix) ||
 			strings.HasPrefix(name, "feedcho_") || strings.HasPrefix(name, "feedat_") {
 			v[name] = vals
 		}
@@ -374,6 +381,9 @@ func overrideField(fe fuel.FieldError, req fuel.Request) string {
 	}
 	if fe.Field == "during_event_cho_g_per_h" {
 		return duringName
+	}
+	if n, _ := fmt.Sscanf(fe.Field, "stage_overrides[%d].%s", &i, &rest); n == 2 && i < len(req.StageOverrides) {
+		return stageGPHName(req.StageOverrides[i].Stage)
 	}
 	return "general"
 }

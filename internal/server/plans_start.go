@@ -41,6 +41,7 @@ type planStartForm struct {
 	TimeZone        string     `form:"time_zone" label:"Time zone" validate:"omitempty,iana_zone"`
 	StartDate       *time.Time `form:"start_date" label:"First day"`
 	Days            int        `form:"days" label:"Number of days" validate:"gte=0,lte=28"`
+	CaffeineMgPerKg *float64   `form:"caffeine_mg_per_kg" label:"Caffeine before the start" unit:"mg/kg" validate:"omitempty,gt=0,lte=15"`
 }
 
 // planInputs is what the start form and the client's records give a request.
@@ -368,6 +369,10 @@ func (s *Server) trainingFor(r *http.Request, pi planInputs) ([]store.TrainingSe
 	case pi.event != nil && (pi.form.Kind == fuel.KindLoading || pi.form.Kind == fuel.KindRace):
 		d := dateOnly(pi.event.LocalStart())
 		from, to = d.AddDate(0, 0, -14-pi.form.TaperDays), d.AddDate(0, 0, 1)
+		if n := len(pi.event.Stages); n > 0 {
+			// A stage race reads its sessions through the day after the last stage.
+			to = dateOnly(pi.event.Stages[n-1].StartsAt.In(pi.event.Location())).AddDate(0, 0, 1)
+		}
 	case pi.form.Kind == fuel.KindRepletion:
 		end, err := forms.ParseLocalDateTime(pi.form.SessionEnd, loadZone(pi.form.TimeZone))
 		if err != nil {
@@ -404,7 +409,12 @@ func buildRequest(pi planInputs) (fuel.Request, error) {
 			modality = "other"
 		}
 		req.Event = &fuel.Event{StartsAt: e.LocalStart(), Modality: modality, DistanceKm: e.DistanceKm,
-			ExpectedDurationMin: float64(e.ExpectedDurationMin), IntensityPctVO2max: in.IntensityPct}
+			ExpectedDurationMin: float64(e.ExpectedDurationMin), IntensityPctVO2max: in.IntensityPct,
+			Segments: e.Segments, Stages: e.Stages}
+		if len(e.Stages) > 0 {
+			req.Event.StartsAt = e.Stages[0].StartsAt.In(e.Location())
+		}
+		req.CaffeineMgPerKg = in.CaffeineMgPerKg
 		req.TimeZone = e.TimeZone
 	}
 	if in.Kind == fuel.KindRepletion {
@@ -432,7 +442,7 @@ func buildRequest(pi planInputs) (fuel.Request, error) {
 	for _, t := range pi.training {
 		modality := t.Modality
 		req.Training = append(req.Training, fuel.TrainingSession{Date: web.ISODate(t.OnDate), Start: t.StartTime,
-			DurationMin: float64(t.DurationMin), Modality: modality, Intensity: t.FuelIntensity()})
+			DurationMin: float64(t.DurationMin), Modality: modality, Intensity: t.FuelIntensity(), TrainLow: t.TrainLow})
 	}
 	return req, nil
 }

@@ -178,6 +178,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 			}
 		}
 	}
+	pv.Race = raceParts(plan, loc, take)
 	if g := plan.Glycogen; g != nil {
 		pv.Glycogen = append(pv.Glycogen, web.Fact{Label: "Expected glycogen at the start",
 			Value:    fmt.Sprintf("muscle %s g of %s g possible%s; liver %s g", web.Num(g.MuscleGStart, 0), web.Num(g.MuscleGCapacity, 0), density(g.WorkingMuscleMmolPerKgStart), web.Num(g.LiverGStart, 0)),

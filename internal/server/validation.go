@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"larder/internal/forms"
+	"larder/internal/fuel"
 	"larder/internal/store"
 	"larder/web"
 )
@@ -173,6 +174,7 @@ type trainingForm struct {
 	DistanceKm    *float64  `form:"distance_km" label:"Distance" unit:"km" validate:"omitempty,gt=0,lte=1000"`
 	Status        string    `form:"status" label:"Status" validate:"required,oneof=planned done" msg:"Choose planned or done."`
 	Notes         string    `form:"notes" label:"Notes" validate:"max=2000"`
+	TrainLow      bool      `form:"train_low" label:"Train low"`
 }
 
 func (in *trainingForm) check(f forms.Form, today time.Time) {
@@ -216,6 +218,7 @@ func (in *trainingForm) apply(t *store.TrainingSession) {
 	t.DistanceKm = roundPtr(in.DistanceKm, 3)
 	t.Status = in.Status
 	t.Notes = in.Notes
+	t.TrainLow = in.TrainLow
 }
 
 func trainingValues(t store.TrainingSession) url.Values {
@@ -238,6 +241,9 @@ func trainingValues(t store.TrainingSession) url.Values {
 	}
 	v.Set("status", t.Status)
 	v.Set("notes", t.Notes)
+	if t.TrainLow {
+		v.Set("train_low", "on")
+	}
 	return v
 }
 
@@ -247,10 +253,15 @@ type eventForm struct {
 	TimeZone            string   `form:"time_zone" label:"Time zone" validate:"required,iana_zone"`
 	Modality            string   `form:"modality" label:"Activity" validate:"required,oneof=run cycle swim row ski triathlon team strength other" msg:"Choose an activity from the list."`
 	DistanceKm          *float64 `form:"distance_km" label:"Distance" unit:"km" validate:"omitempty,gt=0,lte=1000"`
-	ExpectedDurationMin *int     `form:"expected_duration_min" label:"Expected duration" validate:"required,gt=0,lte=1440" msg:"Expected duration must be more than 0 and at most 1440 minutes (24 hours)."`
+	ExpectedDurationMin *int     `form:"expected_duration_min" label:"Expected duration" validate:"required,gt=0,lte=2880" msg:"Expected duration must be more than 0 and at most 2880 minutes (48 hours)."`
 	Days                *int     `form:"days" label:"Days" validate:"omitempty,gte=1,lte=30" msg:"Days must be a whole number from 1 to 30."`
 	Priority            string   `form:"priority" label:"Priority" validate:"required,oneof=A B C" msg:"Choose priority A, B or C."`
 	Notes               string   `form:"notes" label:"Notes" validate:"max=2000"`
+	Segments            string   `form:"segments" label:"Legs" validate:"max=2000"`
+	Stages              string   `form:"stages" label:"Stages" validate:"max=3000"`
+
+	segments []fuel.Segment // parsed by check
+	stages   []fuel.Stage
 }
 
 // startsAt is the event's start as an instant, read in its own zone.
@@ -263,6 +274,7 @@ func (in *eventForm) startsAt() (time.Time, error) {
 }
 
 func (in *eventForm) check(f forms.Form, today time.Time) {
+	in.checkLegs(f)
 	if f.Err("starts_at") != "" || f.Err("time_zone") != "" {
 		return
 	}
@@ -296,6 +308,12 @@ func (in *eventForm) apply(e *store.Event) {
 	}
 	e.Priority = in.Priority
 	e.Notes = in.Notes
+	e.Segments, e.Stages = in.segments, in.stages
+	if len(in.stages) > 0 {
+		// The stages fix the start and the number of racing days.
+		e.StartsAt = in.stages[0].StartsAt
+		e.Days = len(in.stages)
+	}
 }
 
 func eventValues(e store.Event) url.Values {
@@ -311,6 +329,8 @@ func eventValues(e store.Event) url.Values {
 	v.Set("days", strconv.Itoa(e.Days))
 	v.Set("priority", e.Priority)
 	v.Set("notes", e.Notes)
+	v.Set("segments", forms.SegmentsText(e.Segments))
+	v.Set("stages", forms.StagesText(e.Stages, e.Location()))
 	return v
 }
 

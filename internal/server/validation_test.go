@@ -108,7 +108,7 @@ func TestValidationMessages(t *testing.T) {
 		{"event start far", base + "/events", "events", merge(eventOK, "starts_at", "2040-05-01T08:00"), "starts_at",
 			"Start must be within five years of today.", ""},
 		{"event duration", base + "/events", "events", merge(eventOK, "expected_duration_min", "0"), "expected_duration_min",
-			"Expected duration must be more than 0 and at most 1440 minutes (24 hours).", ""},
+			"Expected duration must be more than 0 and at most 2880 minutes (48 hours).", ""},
 		// Germany's clocks go from 02:00 to 03:00 on the last Sunday of March (28 Mar 2027; common practice).
 		{"event start skipped by summer time", base + "/events", "events", merge(eventOK, "starts_at", "2027-03-28T02:30"), "starts_at",
 			"02:30 does not exist in Europe/Berlin on Sun 28 Mar 2027: the clocks go forward then. Give the start as the clocks there will show it, such as 03:30.", `value="2027-03-28T02:30"`},

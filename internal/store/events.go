@@ -5,6 +5,8 @@ import (
 	"time"
 
 	"github.com/jackc/pgx/v5"
+
+	"larder/internal/fuel"
 )
 
 // Priorities of events: A is the season's goal, C a training race.
@@ -24,6 +26,10 @@ type Event struct {
 	Priority            string
 	Notes               string
 	CreatedAt           time.Time
+	// Segments are a multi-sport event's legs in race order; Stages a
+	// stage race's stages. Stored as the engine's JSON.
+	Segments []fuel.Segment
+	Stages   []fuel.Stage
 }
 
 // Location is the event's time zone (UTC if the stored name no longer loads).
@@ -38,12 +44,12 @@ func (e Event) Location() *time.Location {
 // LocalStart is the start in the event's own time zone.
 func (e Event) LocalStart() time.Time { return e.StartsAt.In(e.Location()) }
 
-const eventCols = `id, client_id, name, starts_at, time_zone, modality, distance_km::float8, expected_duration_min, days, priority, notes, created_at`
+const eventCols = `id, client_id, name, starts_at, time_zone, modality, distance_km::float8, expected_duration_min, days, priority, notes, created_at, segments, stages`
 
 func scanEvent(row pgx.Row) (Event, error) {
 	var e Event
 	err := row.Scan(&e.ID, &e.ClientID, &e.Name, &e.StartsAt, &e.TimeZone, &e.Modality, &e.DistanceKm,
-		&e.ExpectedDurationMin, &e.Days, &e.Priority, &e.Notes, &e.CreatedAt)
+		&e.ExpectedDurationMin, &e.Days, &e.Priority, &e.Notes, &e.CreatedAt, &e.Segments, &e.Stages)
 	return e, notFound(err)
 }
 
@@ -70,6 +76,12 @@ func defaultDays(e *Event) {
 	if e.Days == 0 {
 		e.Days = 1
 	}
+	if e.Segments == nil {
+		e.Segments = []fuel.Segment{}
+	}
+	if e.Stages == nil {
+		e.Stages = []fuel.Stage{}
+	}
 }
 
 // AddEvent records an event; e.ID is filled in.
@@ -77,8 +89,9 @@ func (s *Store) AddEvent(ctx context.Context, actor Actor, e *Event) error {
 	defaultDays(e)
 	return s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := tx.QueryRow(ctx, `INSERT INTO events (client_id, name, starts_at, time_zone, modality, distance_km,
-			expected_duration_min, days, priority, notes) VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) RETURNING id, created_at`,
-			e.ClientID, e.Name, e.StartsAt, e.TimeZone, e.Modality, e.DistanceKm, e.ExpectedDurationMin, e.Days, e.Priority, e.Notes).Scan(&e.ID, &e.CreatedAt); err != nil {
+			expected_duration_min, days, priority, notes, segments, stages) VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12) RETURNING id, created_at`,
+			e.ClientID, e.Name, e.StartsAt, e.TimeZone, e.Modality, e.DistanceKm, e.ExpectedDurationMin, e.Days, e.Priority, e.Notes,
+			e.Segments, e.Stages).Scan(&e.ID, &e.CreatedAt); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "create", "event", e.ID, eventDetail(e))
@@ -90,8 +103,9 @@ func (s *Store) UpdateEvent(ctx context.Context, actor Actor, e *Event) error {
 	defaultDays(e)
 	return s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := execOne(ctx, tx, `UPDATE events SET name = $3, starts_at = $4, time_zone = $5, modality = $6, distance_km = $7,
-			expected_duration_min = $8, days = $9, priority = $10, notes = $11 WHERE client_id = $1 AND id = $2`,
-			e.ClientID, e.ID, e.Name, e.StartsAt, e.TimeZone, e.Modality, e.DistanceKm, e.ExpectedDurationMin, e.Days, e.Priority, e.Notes); err != nil {
+			expected_duration_min = $8, days = $9, priority = $10, notes = $11, segments = $12, stages = $13 WHERE client_id = $1 AND id = $2`,
+			e.ClientID, e.ID, e.Name, e.StartsAt, e.TimeZone, e.Modality, e.DistanceKm, e.ExpectedDurationMin, e.Days, e.Priority, e.Notes,
+			e.Segments, e.Stages); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "update", "event", e.ID, eventDetail(e))

@@ -67,7 +67,9 @@ type TrainingSession struct {
 	DistanceKm     *float64
 	Status         string
 	Notes          string
-	CreatedAt      time.Time
+	// TrainLow marks a session the dietitian keeps deliberately unfuelled.
+	TrainLow  bool
+	CreatedAt time.Time
 }
 
 // IntensityText describes the intensity for display ("RPE 7", "tempo zone", "75% VO2max").
@@ -113,12 +115,12 @@ func (t TrainingSession) FuelIntensity() string {
 }
 
 const trainingCols = `id, client_id, on_date, coalesce(to_char(start_time, 'HH24:MI'), ''), modality, duration_min,
-	intensity_kind, intensity_value::float8, coalesce(intensity_zone, ''), distance_km::float8, status, notes, created_at`
+	intensity_kind, intensity_value::float8, coalesce(intensity_zone, ''), distance_km::float8, status, notes, created_at, train_low`
 
 func scanTraining(row pgx.Row) (TrainingSession, error) {
 	var t TrainingSession
 	err := row.Scan(&t.ID, &t.ClientID, &t.OnDate, &t.StartTime, &t.Modality, &t.DurationMin,
-		&t.IntensityKind, &t.IntensityValue, &t.IntensityZone, &t.DistanceKm, &t.Status, &t.Notes, &t.CreatedAt)
+		&t.IntensityKind, &t.IntensityValue, &t.IntensityZone, &t.DistanceKm, &t.Status, &t.Notes, &t.CreatedAt, &t.TrainLow)
 	return t, notFound(err)
 }
 
@@ -153,20 +155,20 @@ func trainingArgs(t *TrainingSession) []any {
 	if t.IntensityKind == IntensityZone {
 		zone = &t.IntensityZone
 	}
-	return []any{t.ClientID, t.OnDate, t.StartTime, t.Modality, t.DurationMin, t.IntensityKind, t.IntensityValue, zone, t.DistanceKm, t.Status, t.Notes}
+	return []any{t.ClientID, t.OnDate, t.StartTime, t.Modality, t.DurationMin, t.IntensityKind, t.IntensityValue, zone, t.DistanceKm, t.Status, t.Notes, t.TrainLow}
 }
 
 func trainingDetail(t *TrainingSession) map[string]any {
 	return map[string]any{"client_id": t.ClientID, "on_date": t.OnDate.Format(time.DateOnly), "start_time": t.StartTime,
-		"modality": t.Modality, "duration_min": t.DurationMin, "intensity": t.IntensityText(), "status": t.Status}
+		"modality": t.Modality, "duration_min": t.DurationMin, "intensity": t.IntensityText(), "status": t.Status, "train_low": t.TrainLow}
 }
 
 // AddTraining records a session; t.ID is filled in.
 func (s *Store) AddTraining(ctx context.Context, actor Actor, t *TrainingSession) error {
 	return s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := tx.QueryRow(ctx, `INSERT INTO training_sessions (client_id, on_date, start_time, modality, duration_min,
-			intensity_kind, intensity_value, intensity_zone, distance_km, status, notes)
-			VALUES ($1, $2, NULLIF($3, '')::time, $4, $5, $6, $7, $8, $9, $10, $11) RETURNING id, created_at`,
+			intensity_kind, intensity_value, intensity_zone, distance_km, status, notes, train_low)
+			VALUES ($1, $2, NULLIF($3, '')::time, $4, $5, $6, $7, $8, $9, $10, $11, $12) RETURNING id, created_at`,
 			trainingArgs(t)...).Scan(&t.ID, &t.CreatedAt); err != nil {
 			return err
 		}
@@ -179,8 +181,8 @@ func (s *Store) UpdateTraining(ctx context.Context, actor Actor, t *TrainingSess
 	return s.inTx(ctx, func(tx pgx.Tx) error {
 		args := append(trainingArgs(t), t.ID)
 		if err := execOne(ctx, tx, `UPDATE training_sessions SET on_date = $2, start_time = NULLIF($3, '')::time, modality = $4,
-			duration_min = $5, intensity_kind = $6, intensity_value = $7, intensity_zone = $8, distance_km = $9, status = $10, notes = $11
-			WHERE client_id = $1 AND id = $12`, args...); err != nil {
+			duration_min = $5, intensity_kind = $6, intensity_value = $7, intensity_zone = $8, distance_km = $9, status = $10, notes = $11, train_low = $12
+			WHERE client_id = $1 AND id = $13`, args...); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "update", "training", t.ID, trainingDetail(t))
