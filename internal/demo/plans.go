@@ -28,7 +28,7 @@ func loadDemoPlans(ctx context.Context, st *store.Store, ids IDs) error {
 	for _, f := range foods {
 		mf = append(mf, menu.Food{ID: f.ID, Name: f.Name, ChoPer100: f.CarbohydrateG, ProtPer100: f.ProteinG, FatPer100: f.FatG,
 			FibrePer100: f.FibreG, PortionName: f.PortionName, PortionG: f.PortionG, Liquid: f.Liquid, Portable: f.Portable,
-			Practice: f.Source == store.SourceLabel, ContainsGluten: f.ContainsGluten})
+			Practice: f.Source == store.SourceLabel, ContainsGluten: f.ContainsGluten, Facts: f.Facts, FactsRecorded: f.FactsRecorded})
 	}
 	d := demoPlans{ctx: ctx, st: st, foods: mf, today: today}
 	if id, ok := ids.Clients["marathoner"]; ok {
@@ -122,7 +122,7 @@ func (d demoPlans) publish(c store.Client, p store.Plan, req fuel.Request, massO
 		return err
 	}
 	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: req.Athlete.BodyMassKg, BodyMassOn: massOn,
-		Suggestions: menu.PlanSuggestions(plan, d.foods, menu.OptionsFor(c.Cautions))}
+		Suggestions: menu.PlanSuggestions(plan, d.foods, menu.OptionsForClient(c.Cautions, nil, false))}
 	v, err := d.st.CreatePlan(d.ctx, store.System, &p, content)
 	if err != nil {
 		return err

@@ -33,6 +33,12 @@ type Food struct {
 	// ContainsGluten: wheat, barley, rye, oats unless certified, and foods
 	// made from them.
 	ContainsGluten bool
+	// Facts are the food's dietary facts (Fact* codes); FactsRecorded
+	// tells that someone recorded them. A food whose facts were never
+	// recorded is left out whenever a dietary need other than gluten-free
+	// applies: nothing is known to be safe.
+	Facts         []string
+	FactsRecorded bool
 }
 
 // Need describes one feed.
@@ -57,6 +63,9 @@ type Need struct {
 	Hours float64
 	// GlutenFree leaves out foods that contain gluten (see GlutenFreeFor).
 	GlutenFree bool
+	// Exclude lists the dietary facts (Fact* codes) of foods that must not
+	// be suggested: the client's dietary needs. Never relaxed.
+	Exclude []string
 	// ProteinG, when set, is the protein the feed is to bring (the first
 	// feed after a session carries about 0.3 g/kg): foods that bring it rank
 	// before those that bring carbohydrate alone, so the suggestion does
@@ -234,7 +243,7 @@ func candidates(foods []Food, need Need) []Food {
 		if !(f.ChoPer100 > 0) || !(f.PortionG > 0) || math.IsNaN(f.FibrePer100) || !CarbohydrateFood(f) {
 			continue
 		}
-		if need.GlutenFree && f.ContainsGluten {
+		if need.GlutenFree && f.ContainsGluten || breaks(f, need.Exclude) {
 			continue // never, not even as a fallback
 		}
 		if need.OnTheMove && !f.Liquid && !f.Portable {

@@ -2,6 +2,7 @@ package menu
 
 import (
 	"fmt"
+	"slices"
 	"strings"
 	"time"
 
@@ -33,6 +34,29 @@ const preEventDrinksG = 500
 // Options are what a client's record asks of all of a plan's suggestions.
 type Options struct {
 	GlutenFree bool // see GlutenFreeFor
+	// Needs are the dietary need codes (see Needs) every suggestion keeps to.
+	Needs []string
+	// fromCautions: some of Needs were read from the recorded cautions.
+	fromCautions bool
+}
+
+// OptionsForClient reads the options from a client's record: the recorded
+// dietary needs; and, until the dietitian has confirmed the client's needs
+// once, also every need the recorded cautions seem to name (NeedsIn) — a
+// note such as "lactose intolerance: no milk or dairy" keeps milk out of
+// the suggestions before anyone has ticked a box.
+func OptionsForClient(cautions string, needs []string, confirmed bool) Options {
+	o := Options{Needs: slices.Clone(needs)}
+	if !confirmed {
+		o.GlutenFree = GlutenFreeFor(cautions)
+		for _, m := range NeedsIn(cautions) {
+			if !slices.Contains(o.Needs, m.Need.Code) {
+				o.Needs = append(o.Needs, m.Need.Code)
+				o.fromCautions = true
+			}
+		}
+	}
+	return o
 }
 
 // GlutenFreeNote is shown next to the suggestions when GlutenFree applies.
@@ -57,6 +81,12 @@ func OptionsFor(cautions string) Options { return Options{GlutenFree: GlutenFree
 
 // Note is the line shown next to suggestions made with these options.
 func (o Options) Note() string {
+	if note := needsNote(o.Needs); note != "" {
+		if o.fromCautions {
+			note += " (read from the recorded cautions)"
+		}
+		return note
+	}
 	if o.GlutenFree {
 		return GlutenFreeNote
 	}
@@ -65,6 +95,7 @@ func (o Options) Note() string {
 
 func (o Options) apply(n Need) Need {
 	n.GlutenFree = n.GlutenFree || o.GlutenFree
+	n.Exclude = append(slices.Clone(n.Exclude), excluded(o.Needs)...)
 	return n
 }
 
@@ -87,12 +118,27 @@ func isMeal(label string) bool {
 // day or repletion feed, its text is NoFit. opts, at most one, are the
 // client's (see OptionsFor).
 func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]string {
+	detail := PlanSuggestionsDetail(plan, foods, opts...)
+	out := make(map[string]string, len(detail))
+	for k, s := range detail {
+		if len(s.Items) == 0 {
+			out[k] = NoFit
+		} else {
+			out[k] = s.Text()
+		}
+	}
+	return out
+}
+
+// PlanSuggestionsDetail is PlanSuggestions with each feed's foods: a feed
+// where nothing fits has a Suggestion with no Items.
+func PlanSuggestionsDetail(plan fuel.Plan, foods []Food, opts ...Options) map[string]Suggestion {
 	var o Options
 	if len(opts) > 0 {
 		o = opts[0]
 	}
-	out := map[string]string{}
-	byTime := map[int64]string{} // a day feed's text by its time
+	out := map[string]Suggestion{}
+	byTime := map[int64]Suggestion{} // a day feed's food plan by its time
 	for _, d := range plan.Days {
 		needs := make([]Need, len(d.Feeds))
 		for i, f := range d.Feeds {
@@ -112,14 +158,9 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 		sugg, ok := SuggestDay(foods, needs)
 		for i := range needs {
 			key := FeedKey("day", d.Date, i)
-			switch {
-			case ok[i]:
-				out[key] = sugg[i].Text()
-			case needs[i].ChoG > 0:
-				out[key] = NoFit
-			}
-			if text, done := out[key]; done {
-				byTime[d.Feeds[i].At.UnixNano()] = text
+			if ok[i] || needs[i].ChoG > 0 {
+				out[key] = sugg[i]
+				byTime[d.Feeds[i].At.UnixNano()] = sugg[i]
 			}
 		}
 	}
@@ -136,7 +177,7 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 			// A meal 1–4 h before the start is mostly eaten, not drunk:
 			// drinks in it are kept to about 0.5 L so the stomach has
 			// emptied by the start (this project's own margin).
-			out[key] = sg.Text()
+			out[key] = sg
 		}
 	}
 	if rp := plan.Repletion; rp != nil {
@@ -151,10 +192,8 @@ func PlanSuggestions(plan fuel.Plan, foods []Food, opts ...Options) map[string]s
 			switch {
 			case shared:
 				out[key] = text
-			case ok[i]:
-				out[key] = sugg[i].Text()
-			case needs[i].ChoG > 0:
-				out[key] = NoFit
+			case ok[i] || needs[i].ChoG > 0:
+				out[key] = sugg[i]
 			}
 		}
 	}

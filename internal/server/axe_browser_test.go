@@ -227,6 +227,8 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 		{"import", clientURL + "/import"},
 		{"export and erasure", clientURL + "/data"},
 		{"practice import", a.srv.URL + "/import"},
+		{"dietary needs", clientURL + "/dietary-needs"},
+		{"dietary needs (offered from the cautions)", clientURL + "/dietary-needs?offer=1"},
 	} {
 		axeVisit(t, ctx, src, p.name, p.url)
 	}

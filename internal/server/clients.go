@@ -162,6 +162,10 @@ func (s *Server) clientPage(w http.ResponseWriter, r *http.Request) {
 		Client: c, Today: today, BodyMass: masses, Training: shown, TrainingTotal: len(training),
 		AllTraining: allTraining, DaysBack: trainingDaysBack, DaysAhead: trainingDaysAhead, Events: events, History: history,
 	}
+	if d.Needs, err = s.clientNeedsSection(r, c); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
 	if s.ClientPlansSection != nil {
 		if d.Plans, err = s.ClientPlansSection(r, c); err != nil {
 			s.ServerError(w, r, err)

@@ -65,6 +65,18 @@ func decodeFood(values url.Values) (store.Food, forms.Form) {
 				web.Num(*in.EnergyKcal, 0), web.Num(est, 0)))
 		}
 	}
+	// The dietary facts, one box each (gluten has its own box above);
+	// a food saved through this form has its facts recorded, none ticked
+	// meaning it contains none of them.
+	var facts []string
+	for _, fact := range menu.Facts {
+		if fact.Code == menu.FactGluten {
+			continue
+		}
+		if values.Get(web.FactInput(fact.Code)) == "on" {
+			facts = append(facts, fact.Code)
+		}
+	}
 	if f.Has() {
 		return store.Food{}, f
 	}
@@ -72,6 +84,7 @@ func decodeFood(values url.Values) (store.Food, forms.Form) {
 		Name: in.Name, CarbohydrateG: *in.CarbohydrateG, ProteinG: *in.ProteinG, FatG: *in.FatG, FibreG: *in.FibreG,
 		EnergyKcal: *in.EnergyKcal, PortionName: in.PortionName, PortionG: *in.PortionG,
 		Liquid: in.Liquid, Portable: in.Portable, ContainsGluten: in.ContainsGluten, Source: in.Source,
+		Facts: facts, FactsRecorded: true,
 	}, f
 }
 
@@ -95,6 +108,11 @@ func foodValues(fd store.Food) url.Values {
 	if fd.ContainsGluten {
 		v.Set("contains_gluten", "on")
 	}
+	for _, code := range fd.Facts {
+		if code != menu.FactGluten {
+			v.Set(web.FactInput(code), "on")
+		}
+	}
 	return v
 }
 
@@ -107,7 +125,8 @@ func MenuFoods(foods []store.Food) []menu.Food {
 		}
 		out = append(out, menu.Food{ID: f.ID, Name: f.Name, ChoPer100: f.CarbohydrateG, ProtPer100: f.ProteinG,
 			FatPer100: f.FatG, FibrePer100: f.FibreG, PortionName: f.PortionName, PortionG: f.PortionG,
-			Liquid: f.Liquid, Portable: f.Portable, Practice: f.Source == store.SourceLabel, ContainsGluten: f.ContainsGluten})
+			Liquid: f.Liquid, Portable: f.Portable, Practice: f.Source == store.SourceLabel, ContainsGluten: f.ContainsGluten,
+			Facts: f.Facts, FactsRecorded: f.FactsRecorded})
 	}
 	return out
 }

@@ -299,7 +299,7 @@ func TestGlutenFreeSuggestionsForCoeliacClient(t *testing.T) {
 	a := newApp(t)
 	b, _ := a.signedIn(store.RoleDietitian)
 	cid, before := loadingPlan(t, a, b)
-	const note = "Gluten-free suggestions (recorded caution)"
+	const note = "Suggestions keep to: Gluten-free (read from the recorded cautions)"
 	glutenFoods := map[string]bool{}
 	foods, err := a.st.ListFoods(context.Background(), false)
 	if err != nil {

@@ -142,7 +142,13 @@ func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, 
 		s.ServerError(w, r, err)
 		return
 	}
+	opts, err := s.menuOptions(r.Context(), c)
+	if err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
 	pv := s.planView(c, p, v, versions, stored)
+	pv.SuggestionNote = opts.Note()
 	pv.Form = f
 	pv.Notice = notice
 	if !pv.Editable && notice != "" {

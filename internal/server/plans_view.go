@@ -108,7 +108,6 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		overriddenFeeds[fmt.Sprintf("%s_%d", o.Date, o.Index)] = true
 	}
 	suggestions := stored
-	pv.SuggestionNote = menu.OptionsFor(c.Cautions).Note()
 	var bars []chart.DayTarget
 	for _, d := range plan.Days {
 		dv := web.DayView{
@@ -327,20 +326,29 @@ func intensityWords(x string) string {
 	return x
 }
 
-// suggestFor makes the food suggestions of a plan's feeds, by store.FeedKey,
-// as the client's recorded cautions ask (gluten-free for coeliac disease).
-func suggestFor(plan fuel.Plan, foods []menu.Food, cautions string) map[string]string {
-	return menu.PlanSuggestions(plan, foods, menu.OptionsFor(cautions))
+// menuOptions is what the client's record asks of every suggestion: the
+// recorded dietary needs, and until they are confirmed the needs that the
+// recorded cautions name.
+func (s *Server) menuOptions(ctx context.Context, c store.Client) (menu.Options, error) {
+	d, err := s.Store.ClientDietaryNeeds(ctx, c.ID)
+	if err != nil {
+		return menu.Options{}, err
+	}
+	return menu.OptionsForClient(c.Cautions, d.Codes, d.Confirmed()), nil
 }
 
 // planSuggestions makes a plan's food suggestions from the current foods
-// list, as a save stores them with the feeds.
+// list and the client's dietary needs, as a save stores them with the feeds.
 func (s *Server) planSuggestions(ctx context.Context, c store.Client, plan fuel.Plan) (map[string]string, error) {
 	foods, err := s.Store.ListFoods(ctx, false)
 	if err != nil {
 		return nil, err
 	}
-	return suggestFor(plan, MenuFoods(foods), c.Cautions), nil
+	opts, err := s.menuOptions(ctx, c)
+	if err != nil {
+		return nil, err
+	}
+	return menu.PlanSuggestions(plan, MenuFoods(foods), opts), nil
 }
 
 // ----- client page hooks -----

@@ -43,6 +43,7 @@ func (s *Server) routes() http.Handler {
 			s.mountLinkRoutes(r)
 			s.mountDataRoutes(r)
 			s.mountExportRoutes(r)
+			s.mountDietaryRoutes(r)
 
 			r.Group(func(r chi.Router) {
 				r.Use(s.requireAdmin)

@@ -3,6 +3,7 @@ package store
 import (
 	"context"
 	"errors"
+	"slices"
 	"time"
 
 	"github.com/jackc/pgx/v5"
@@ -29,10 +30,14 @@ type Food struct {
 	// gluten-free) and foods made from them; suggestions leave them out for
 	// a client whose cautions record coeliac disease or gluten.
 	ContainsGluten bool
-	Source         string
-	ArchivedAt     *time.Time
-	CreatedAt      time.Time
-	UpdatedAt      time.Time
+	// Facts are the food's dietary facts (menu.Fact* codes: what it
+	// contains); FactsRecorded tells that someone recorded them.
+	Facts         []string
+	FactsRecorded bool
+	Source        string
+	ArchivedAt    *time.Time
+	CreatedAt     time.Time
+	UpdatedAt     time.Time
 }
 
 // Archived reports whether the food is archived (kept, but no longer suggested).
@@ -42,12 +47,12 @@ func (f Food) Archived() bool { return f.ArchivedAt != nil }
 var ErrFoodNameTaken = errors.New("store: a food with this name already exists")
 
 const foodCols = `id, name, carbohydrate_g::float8, protein_g::float8, fat_g::float8, fibre_g::float8, energy_kcal::float8,
-	portion_name, portion_g::float8, liquid, portable, contains_gluten, source, archived_at, created_at, updated_at`
+	portion_name, portion_g::float8, liquid, portable, contains_gluten, facts, facts_recorded, source, archived_at, created_at, updated_at`
 
 func scanFood(row pgx.Row) (Food, error) {
 	var f Food
 	err := row.Scan(&f.ID, &f.Name, &f.CarbohydrateG, &f.ProteinG, &f.FatG, &f.FibreG, &f.EnergyKcal,
-		&f.PortionName, &f.PortionG, &f.Liquid, &f.Portable, &f.ContainsGluten, &f.Source, &f.ArchivedAt, &f.CreatedAt, &f.UpdatedAt)
+		&f.PortionName, &f.PortionG, &f.Liquid, &f.Portable, &f.ContainsGluten, &f.Facts, &f.FactsRecorded, &f.Source, &f.ArchivedAt, &f.CreatedAt, &f.UpdatedAt)
 	return f, notFound(err)
 }
 
@@ -69,7 +74,7 @@ func (s *Store) FoodByID(ctx context.Context, id int64) (Food, error) {
 func foodDetail(f *Food) map[string]any {
 	return map[string]any{"name": f.Name, "carbohydrate_g": f.CarbohydrateG, "protein_g": f.ProteinG, "fat_g": f.FatG,
 		"fibre_g": f.FibreG, "energy_kcal": f.EnergyKcal, "portion_name": f.PortionName, "portion_g": f.PortionG,
-		"liquid": f.Liquid, "portable": f.Portable, "contains_gluten": f.ContainsGluten, "source": f.Source}
+		"liquid": f.Liquid, "portable": f.Portable, "contains_gluten": f.ContainsGluten, "facts": f.Facts, "source": f.Source}
 }
 
 func foodErr(err error) error {
@@ -83,10 +88,11 @@ func foodErr(err error) error {
 func (s *Store) AddFood(ctx context.Context, actor Actor, f *Food) error {
 	return foodErr(s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := tx.QueryRow(ctx, `INSERT INTO foods (name, carbohydrate_g, protein_g, fat_g, fibre_g, energy_kcal,
-			portion_name, portion_g, liquid, portable, source, contains_gluten) VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12)
+			portion_name, portion_g, liquid, portable, source, contains_gluten, facts, facts_recorded)
+			VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14)
 			RETURNING id, created_at, updated_at`,
 			f.Name, f.CarbohydrateG, f.ProteinG, f.FatG, f.FibreG, f.EnergyKcal, f.PortionName, f.PortionG,
-			f.Liquid, f.Portable, f.Source, f.ContainsGluten).Scan(&f.ID, &f.CreatedAt, &f.UpdatedAt); err != nil {
+			f.Liquid, f.Portable, f.Source, f.ContainsGluten, factsOf(f), f.FactsRecorded).Scan(&f.ID, &f.CreatedAt, &f.UpdatedAt); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "create", "food", f.ID, foodDetail(f))
@@ -98,10 +104,10 @@ func (s *Store) UpdateFood(ctx context.Context, actor Actor, f *Food) error {
 	return foodErr(s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := execOne(ctx, tx, `UPDATE foods SET name = $2, carbohydrate_g = $3, protein_g = $4, fat_g = $5, fibre_g = $6,
 			energy_kcal = $7, portion_name = $8, portion_g = $9, liquid = $10, portable = $11, source = $12,
-			contains_gluten = $13, updated_at = now()
+			contains_gluten = $13, facts = $14, facts_recorded = $15, updated_at = now()
 			WHERE id = $1`,
 			f.ID, f.Name, f.CarbohydrateG, f.ProteinG, f.FatG, f.FibreG, f.EnergyKcal, f.PortionName, f.PortionG,
-			f.Liquid, f.Portable, f.Source, f.ContainsGluten); err != nil {
+			f.Liquid, f.Portable, f.Source, f.ContainsGluten, factsOf(f), f.FactsRecorded); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "update", "food", f.ID, foodDetail(f))
@@ -131,4 +137,14 @@ func (s *Store) setFoodArchived(ctx context.Context, actor Actor, id int64, arch
 		}
 		return AuditTx(ctx, tx, actor, action, "food", id, nil)
 	}))
+}
+
+// factsOf is a food's facts as stored: never NULL, and gluten among them
+// when the gluten flag is set.
+func factsOf(f *Food) []string {
+	out := append([]string{}, f.Facts...)
+	if f.ContainsGluten && !slices.Contains(out, "gluten") {
+		out = append(out, "gluten")
+	}
+	return out
 }
