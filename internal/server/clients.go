@@ -65,9 +65,11 @@ func (s *Server) clientUpdate(w http.ResponseWriter, r *http.Request) {
 	var in clientForm
 	f := forms.Decode(r.PostForm, &in)
 	in.check(f, s.Today())
-	if loaded := r.PostForm.Get("loaded"); loaded != "" && loaded != clientStamp(c) {
+	if loaded := r.PostForm.Get("loaded"); loaded != clientStamp(c) {
 		// Saving would silently undo the other change; show it, and let a
-		// second save (now on the fresh version) go through on purpose.
+		// second save (now on the fresh version) go through on purpose. A
+		// form without its stamp (an old tab, a script) is refused alike:
+		// nothing tells that it was made on the current details.
 		f.Errors.Add("loaded", "Someone saved changes to this client at "+web.UTCStamp(c.UpdatedAt)+
 			" UTC, after you opened this form. Nothing was saved. Check the client page for their change; saving this form again replaces it with what is below.")
 		f.Values.Set("loaded", clientStamp(c))

@@ -192,7 +192,12 @@ func (s *Server) editFoodPage(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	s.Render(w, r, http.StatusOK, "Edit food", "foods", web.FoodForm(forms.FromValues(foodValues(fd)), fd.ID))
+	f := forms.FromValues(foodValues(fd))
+	if err := s.setVersion(r, f, store.VersionFood, fd.ID); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Render(w, r, http.StatusOK, "Edit food", "foods", web.FoodForm(f, fd.ID))
 }
 
 func (s *Server) updateFood(w http.ResponseWriter, r *http.Request) {
@@ -206,7 +211,15 @@ func (s *Server) updateFood(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	fd.ID = old.ID
-	if err := s.Store.UpdateFood(r.Context(), Actor(r), &fd); err != nil {
+	if err := s.Store.UpdateFood(guarded(r, store.VersionFood, old.ID), Actor(r), &fd); err != nil {
+		if errors.Is(err, store.ErrStale) {
+			if err := s.refuseStale(r, f, store.VersionFood, old.ID); err != nil {
+				s.ServerError(w, r, err)
+				return
+			}
+			s.Render(w, r, http.StatusConflict, "Edit food", "foods", web.FoodForm(f, old.ID))
+			return
+		}
 		if errors.Is(err, store.ErrFoodNameTaken) {
 			f.Errors.Add("name", "Another food already has this name. Choose a name that tells them apart.")
 			s.Render(w, r, http.StatusUnprocessableEntity, "Edit food", "foods", web.FoodForm(f, old.ID))

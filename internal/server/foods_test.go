@@ -198,6 +198,7 @@ func TestFoodsEditWithValidation(t *testing.T) {
 		v := foodValuesFor(name)
 		v.Set("carbohydrate_g", "8")
 		v.Set("energy_kcal", "32")
+		v.Set("version", "1")
 		admin.post(path, v).mustRedirect(t, "/foods")
 		if n := a.count(`SELECT count(*) FROM foods WHERE id = $1 AND carbohydrate_g = 8 AND energy_kcal = 32 AND source = 'label' AND liquid`, id); n != 1 {
 			t.Fatal("edit not saved")
@@ -285,6 +286,7 @@ func TestFoodsGlutenFlag(t *testing.T) {
 		t.Errorf("edit form does not show the gluten box ticked:\n%s", edit.body)
 	}
 	v.Del("contains_gluten")
+	v.Set("version", hiddenValue(t, edit.body, "version"))
 	admin.post("/foods/"+itoa(id), v).mustRedirect(t, "/foods")
 	if n := a.count(`SELECT count(*) FROM foods WHERE id = $1 AND NOT contains_gluten`, id); n != 1 {
 		t.Fatal("gluten flag not taken off")

@@ -2,6 +2,7 @@ package server
 
 import (
 	"context"
+	"errors"
 	"net/http"
 
 	"larder/internal/forms"
@@ -86,7 +87,12 @@ func (s *Server) bodyMassEditPage(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	s.Render(w, r, http.StatusOK, "Edit body mass", "clients", web.BodyMassForm(c, &m, forms.FromValues(bodyMassValues(m))))
+	f := forms.FromValues(bodyMassValues(m))
+	if err := s.setVersion(r, f, store.VersionBodyMass, m.ID); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Render(w, r, http.StatusOK, "Edit body mass", "clients", web.BodyMassForm(c, &m, f))
 }
 
 func (s *Server) bodyMassUpdate(w http.ResponseWriter, r *http.Request) {
@@ -102,7 +108,15 @@ func (s *Server) bodyMassUpdate(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	in.apply(&m)
-	if err := s.Store.UpdateBodyMass(r.Context(), Actor(r), &m); err != nil {
+	if err := s.Store.UpdateBodyMass(guarded(r, store.VersionBodyMass, m.ID), Actor(r), &m); err != nil {
+		if errors.Is(err, store.ErrStale) {
+			if err := s.refuseStale(r, f, store.VersionBodyMass, m.ID); err != nil {
+				s.ServerError(w, r, err)
+				return
+			}
+			s.Render(w, r, http.StatusConflict, "Edit body mass", "clients", web.BodyMassForm(c, &m, f))
+			return
+		}
 		s.StoreError(w, r, err)
 		return
 	}
@@ -166,7 +180,12 @@ func (s *Server) trainingEditPage(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	s.Render(w, r, http.StatusOK, "Edit training", "clients", web.TrainingForm(c, &t, forms.FromValues(trainingValues(t))))
+	f := forms.FromValues(trainingValues(t))
+	if err := s.setVersion(r, f, store.VersionTraining, t.ID); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Render(w, r, http.StatusOK, "Edit training", "clients", web.TrainingForm(c, &t, f))
 }
 
 func (s *Server) trainingUpdate(w http.ResponseWriter, r *http.Request) {
@@ -182,7 +201,15 @@ func (s *Server) trainingUpdate(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	in.apply(&t)
-	if err := s.Store.UpdateTraining(r.Context(), Actor(r), &t); err != nil {
+	if err := s.Store.UpdateTraining(guarded(r, store.VersionTraining, t.ID), Actor(r), &t); err != nil {
+		if errors.Is(err, store.ErrStale) {
+			if err := s.refuseStale(r, f, store.VersionTraining, t.ID); err != nil {
+				s.ServerError(w, r, err)
+				return
+			}
+			s.Render(w, r, http.StatusConflict, "Edit training", "clients", web.TrainingForm(c, &t, f))
+			return
+		}
 		s.StoreError(w, r, err)
 		return
 	}
@@ -250,7 +277,12 @@ func (s *Server) eventEditPage(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	s.Render(w, r, http.StatusOK, "Edit event", "clients", web.EventForm(c, &e, forms.FromValues(eventValues(e))))
+	f := forms.FromValues(eventValues(e))
+	if err := s.setVersion(r, f, store.VersionEvent, e.ID); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Render(w, r, http.StatusOK, "Edit event", "clients", web.EventForm(c, &e, f))
 }
 
 func (s *Server) eventUpdate(w http.ResponseWriter, r *http.Request) {
@@ -266,7 +298,15 @@ func (s *Server) eventUpdate(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	in.apply(&e)
-	if err := s.Store.UpdateEvent(r.Context(), Actor(r), &e); err != nil {
+	if err := s.Store.UpdateEvent(guarded(r, store.VersionEvent, e.ID), Actor(r), &e); err != nil {
+		if errors.Is(err, store.ErrStale) {
+			if err := s.refuseStale(r, f, store.VersionEvent, e.ID); err != nil {
+				s.ServerError(w, r, err)
+				return
+			}
+			s.Render(w, r, http.StatusConflict, "Edit event", "clients", web.EventForm(c, &e, f))
+			return
+		}
 		s.StoreError(w, r, err)
 		return
 	}

@@ -41,7 +41,7 @@ func TestClientCreateEditArchive(t *testing.T) {
 
 	edit := b.get("/clients/" + cid + "/edit")
 	edit.mustContain(t, `value="`+name+`"`, `value="1994-06-02"`, "Coeliac disease")
-	b.post("/clients/"+cid, url.Values{"name": {name + " Berg"}, "sex": {"female"}, "sport": {"Half marathon"}}).mustRedirect(t, "/clients/"+cid)
+	b.post("/clients/"+cid, url.Values{"name": {name + " Berg"}, "sex": {"female"}, "sport": {"Half marathon"}, "loaded": {hiddenValue(t, edit.body, "loaded")}}).mustRedirect(t, "/clients/"+cid)
 	c, _ = a.st.ClientByID(context.Background(), c.ID)
 	if c.Name != name+" Berg" || c.Sport != "Half marathon" || c.HeightCm != nil || c.Cautions != "" {
 		t.Fatalf("edited client %+v", c)
@@ -109,7 +109,7 @@ func TestBodyMassAddEditDelete(t *testing.T) {
 
 	id := itoa(list[1].ID)
 	b.get(base+"/body-mass/"+id+"/edit").mustContain(t, `value="61.4"`, `value="21.5"`, `value="DXA"`)
-	b.post(base+"/body-mass/"+id, url.Values{"measured_on": {"2027-02-21"}, "mass": {"61.9"}, "unit": {"kg"}}).mustRedirect(t, base)
+	b.post(base+"/body-mass/"+id, url.Values{"version": {"1"}, "measured_on": {"2027-02-21"}, "mass": {"61.9"}, "unit": {"kg"}}).mustRedirect(t, base)
 	m, _ := a.st.BodyMassByID(ctx, c.ID, list[1].ID)
 	if m.MassKg != 61.9 || m.BodyFatPct != nil || m.MeasuredOn.Format("2006-01-02") != "2027-02-21" {
 		t.Fatalf("edited %+v", m)
@@ -167,7 +167,7 @@ func TestTrainingAddEditDelete(t *testing.T) {
 
 	id := itoa(run.ID)
 	b.get(base+"/training/"+id+"/edit").mustContain(t, `value="06:30"`, `value="75"`, `value="14.2"`)
-	b.post(base+"/training/"+id, url.Values{"on_date": {"2027-02-27"}, "modality": {"run"}, "duration_min": {"80"},
+	b.post(base+"/training/"+id, url.Values{"version": {"1"}, "on_date": {"2027-02-27"}, "modality": {"run"}, "duration_min": {"80"},
 		"intensity_kind": {"zone"}, "zone": {"endurance"}, "status": {"done"}}).mustRedirect(t, base)
 	run, _ = a.st.TrainingByID(ctx, c.ID, run.ID)
 	if run.DurationMin != 80 || run.IntensityKind != "zone" || run.IntensityZone != "endurance" || run.IntensityValue != nil || run.StartTime != "" || run.DistanceKm != nil {
@@ -204,7 +204,7 @@ func TestEventAddEditDelete(t *testing.T) {
 
 	id := itoa(e.ID)
 	b.get(base+"/events/"+id+"/edit").mustContain(t, `value="2027-04-18T09:00"`, `value="Europe/Oslo"`)
-	b.post(base+"/events/"+id, url.Values{"name": {"Lakeside Stage Race"}, "starts_at": {"2027-04-18 10:30"}, "time_zone": {"america/denver"},
+	b.post(base+"/events/"+id, url.Values{"version": {"1"}, "name": {"Lakeside Stage Race"}, "starts_at": {"2027-04-18 10:30"}, "time_zone": {"america/denver"},
 		"modality": {"cycle"}, "expected_duration_min": {"240"}, "days": {"3"}, "priority": {"B"}}).mustRedirect(t, base)
 	e, _ = a.st.EventByID(ctx, c.ID, e.ID)
 	// Denver in April is on daylight time, UTC−6; the zone typed in lower case is saved in its IANA spelling.

@@ -37,9 +37,15 @@ type Actor int64
 const System Actor = 0
 
 // inTx runs fn in one transaction: committed when fn returns nil, rolled back
-// otherwise.
+// otherwise. Under ExpectVersion the row's version is locked and checked
+// first, in the same transaction.
 func (s *Store) inTx(ctx context.Context, fn func(pgx.Tx) error) error {
-	return pgx.BeginFunc(ctx, s.Pool, fn)
+	return pgx.BeginFunc(ctx, s.Pool, func(tx pgx.Tx) error {
+		if err := checkGuard(ctx, tx); err != nil {
+			return err
+		}
+		return fn(tx)
+	})
 }
 
 // InTx is inTx for other packages that must write several things at once
