@@ -2,6 +2,7 @@ package importer
 
 import (
 	"bytes"
+	"math"
 	"path/filepath"
 	"strings"
 	"time"
@@ -103,4 +104,14 @@ func finish(name string, start time.Time, seconds, meters float64, sport string,
 		t.IntensityKind, t.IntensityZone = "zone", "endurance"
 	}
 	return t, nil
+}
+
+// roundedMean is the whole-number mean of n recorded samples summing to sum,
+// or nil when the file recorded none (a missing heart rate or power is not 0).
+func roundedMean(sum, n float64) *int {
+	if n == 0 {
+		return nil
+	}
+	v := int(math.Round(sum / n))
+	return &v
 }

@@ -119,15 +119,7 @@ func fitFromRecords(name string, act *filedef.Activity, opt ActivityOptions) (Se
 	if first.IsZero() || !last.After(first) {
 		return SessionRow{}, refuse(name + " holds no session and too few timed records to give one.")
 	}
-	var hr, power *int
-	if hrN > 0 {
-		v := int(math.Round(hrSum / hrN))
-		hr = &v
-	}
-	if pN > 0 {
-		v := int(math.Round(pSum / pN))
-		power = &v
-	}
+	hr, power := roundedMean(hrSum, hrN), roundedMean(pSum, pN)
 	sport := ""
 	if len(act.Sports) > 0 {
 		sport = fitSport(act.Sports[0].Sport)

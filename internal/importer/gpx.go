@@ -119,15 +119,7 @@ func readGPX(name string, data []byte, opt ActivityOptions) ([]SessionRow, error
 	if points < 2 || first.IsZero() || !last.After(first) {
 		return nil, refuse(name + " has too few timed track points to give a session's start and duration.")
 	}
-	var hr, power *int
-	if hrN > 0 {
-		v := int(math.Round(hrSum / hrN))
-		hr = &v
-	}
-	if pN > 0 {
-		v := int(math.Round(pSum / pN))
-		power = &v
-	}
+	hr, power := roundedMean(hrSum, hrN), roundedMean(pSum, pN)
 	row, err := finish(name, first, last.Sub(first).Seconds(), meters, sport, hr, power, opt)
 	if err != nil {
 		return nil, err
