@@ -5,7 +5,6 @@ import (
 	"strconv"
 
 	"github.com/go-chi/chi/v5"
-	"github.com/go-chi/chi/v5/middleware"
 
 	"larder/internal/forms"
 	"larder/internal/store"
@@ -20,23 +19,52 @@ import (
 func (s *Server) recordRead(kind string) func(http.Handler) http.Handler {
 	return func(next http.Handler) http.Handler {
 		return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
-			ww := middleware.NewWrapResponseWriter(w, r.ProtoMajor)
-			next.ServeHTTP(ww, r)
-			if ww.Status() != http.StatusOK || CurrentUser(r) == nil {
-				return
-			}
-			rec := store.ReadRecord{Kind: kind, Path: r.URL.Path}
-			rec.ClientID, _ = strconv.ParseInt(chi.URLParam(r, "clientID"), 10, 64)
-			rec.PlanID, _ = strconv.ParseInt(chi.URLParam(r, "planID"), 10, 64)
-			rec.Version, _ = strconv.Atoi(chi.URLParam(r, "version"))
-			// The page is already on its way; a read that cannot be recorded
-			// is logged as an error so an operator sees the gap.
-			if err := s.Store.AuditRead(r.Context(), Actor(r), rec); err != nil {
-				s.Log.Error("record a read of health data", "kind", kind, "client", rec.ClientID, "err", err)
-			}
+			// The read is recorded when the handler commits to a 200, before
+			// the body goes out, so whoever has the page also has its row.
+			rw := &readRecorder{ResponseWriter: w, record: func(status int) {
+				if status != http.StatusOK || CurrentUser(r) == nil {
+					return
+				}
+				rec := store.ReadRecord{Kind: kind, Path: r.URL.Path}
+				rec.ClientID, _ = strconv.ParseInt(chi.URLParam(r, "clientID"), 10, 64)
+				rec.PlanID, _ = strconv.ParseInt(chi.URLParam(r, "planID"), 10, 64)
+				rec.Version, _ = strconv.Atoi(chi.URLParam(r, "version"))
+				// A read that cannot be recorded is logged as an error so an
+				// operator sees the gap; the page still goes out.
+				if err := s.Store.AuditRead(r.Context(), Actor(r), rec); err != nil {
+					s.Log.Error("record a read of health data", "kind", kind, "client", rec.ClientID, "err", err)
+				}
+			}}
+			next.ServeHTTP(rw, r)
 		})
 	}
 }
+
+// readRecorder calls record once, with the status, when the response's
+// header is written (explicitly or by the first Write).
+type readRecorder struct {
+	http.ResponseWriter
+	record  func(status int)
+	written bool
+}
+
+func (w *readRecorder) WriteHeader(code int) {
+	if !w.written {
+		w.written = true
+		w.record(code)
+	}
+	w.ResponseWriter.WriteHeader(code)
+}
+
+func (w *readRecorder) Write(b []byte) (int, error) {
+	if !w.written {
+		w.WriteHeader(http.StatusOK)
+	}
+	return w.ResponseWriter.Write(b)
+}
+
+// Unwrap lets http.ResponseController reach the underlying writer.
+func (w *readRecorder) Unwrap() http.ResponseWriter { return w.ResponseWriter }
 
 type readsQuery struct {
 	Client int64 `form:"client" label:"Client" validate:"omitempty,min=1"`
