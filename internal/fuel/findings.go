@@ -89,11 +89,11 @@ func (p *planner) finish() {
 	switch {
 	case p.body.FFMMethod == FFMNone && p.req.Athlete.HeightCm != nil:
 		p.find("fat-free-mass-unknown", LevelNote, "plan", SrcBoer,
-			"Height was given, but the Boer estimate of lean mass from it (%.1f kg) is not between 0 and the body mass of %g kg, so it cannot be used: fat-free mass and energy availability are not computed. Measure body fat for them.",
+			"Height was given, but the Boer estimate of lean mass from it (%.1f kg) is not between 0 and the body mass of %g kg, so it cannot be used: fat-free mass is not known and energy availability is only screened on an estimate. Measure body fat for both.",
 			p.body.BoerKg, mass)
 	case p.body.FFMMethod == FFMNone:
 		p.find("fat-free-mass-unknown", LevelNote, "plan", SrcBoer,
-			"Neither body fat nor height was given, so fat-free mass and energy availability are not computed.")
+			"Neither body fat nor height was given, so fat-free mass is not known and energy availability is only screened on an estimate. Measure body fat for both.")
 	}
 	p.checkBodyFat()
 	for i := range p.plan.Days {
