@@ -2,6 +2,7 @@ package sheet
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"time"
 
@@ -381,6 +382,7 @@ func (d *doc) feeds() {
 	d.color(colMuted)
 	d.para("Times in "+d.zone+". Suggestions are examples from the practice's food list that add up to the feed's carbohydrate; swap for foods you know you tolerate. * set by the dietitian (override).", 3.4)
 	d.color(colInk)
+	var prevAdvice []string
 	for _, day := range p.Days {
 		if len(day.Feeds) == 0 {
 			continue
@@ -401,7 +403,9 @@ func (d *doc) feeds() {
 		d.f.SetX(marginX)
 		d.f.CellFormat(d.w, 4.6, d.tr(title), "", 1, "L", false, 0, "")
 		d.feedTable(rows, 12)
-		if len(day.Advice) > 0 {
+		// Advice the day before already gave (the second of two load days)
+		// is not printed again: the days sit one under the other.
+		if len(day.Advice) > 0 && !slices.Equal(day.Advice, prevAdvice) {
 			d.font("I", 7.6)
 			d.color(colMuted)
 			for _, a := range day.Advice {
@@ -410,6 +414,7 @@ func (d *doc) feeds() {
 			}
 			d.color(colInk)
 		}
+		prevAdvice = day.Advice
 		d.draw(colRule)
 		d.f.SetLineWidth(0.15)
 		y := d.f.GetY() + 0.6
