@@ -147,7 +147,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 			BandMin: d.BandMinGPerKg, BandMax: d.BandMaxGPerKg, Overridden: d.Overridden})
 	}
 	if len(bars) > 0 {
-		if svg, err := chart.GramsPerKgByDay(bars); err == nil {
+		if svg, err := s.gPerKgSVG(bars); err == nil {
 			pv.GPerKgChart = svg
 		} else {
 			s.Log.Warn("g/kg chart", "plan", p.ID, "err", err)
@@ -247,7 +247,7 @@ func (s *Server) glycogenChart(curve []fuel.GlycogenPoint, start time.Time, labe
 	if last := curve[len(curve)-1]; (len(curve)-1)%step != 0 {
 		pts = append(pts, chart.GlycogenPoint{At: last.At.In(loc), MuscleG: last.MuscleG, LiverG: last.LiverG})
 	}
-	svg, err := chart.GlycogenCurve(pts, start.In(loc), label)
+	svg, err := s.glycogenSVG(pts, start.In(loc), label)
 	if err != nil {
 		s.Log.Warn("glycogen chart", "err", err)
 		return nil

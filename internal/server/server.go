@@ -41,7 +41,7 @@ type Server struct {
 	sessionNow func() time.Time
 	// calendars keeps built client calendar feeds by calendarKey.
 	calendars *lru.Cache[string, []byte]
-	// charts keeps drawn body-mass trends (see bodyMassSVG).
+	// charts keeps drawn charts by a hash of their input (see drawn).
 	charts *chartCache
 
 	// ClientPlansSection, when set (by mountPlanRoutes), renders the plans
