@@ -19,8 +19,8 @@ func computeExample(t *testing.T, name string) (code int, stdout, stderr string)
 	return code, out.String(), errs.String()
 }
 
-func TestComputeExamplesGiveIssueKeys(t *testing.T) {
-	// The answer of issue 3 has at least these keys; units are in the names.
+func TestComputeExamplesGiveTheAnswerKeys(t *testing.T) {
+	// A computed plan's JSON has at least these keys; units are in the names.
 	top := []string{"days", "pre_event_meal", "during_event", "repletion", "glycogen", "expected_mass_gain_kg", "findings", "caution"}
 	day := []string{"date", "cho_g_per_kg", "cho_g", "protein_g", "fat_g", "energy_kcal", "feeds"}
 	feed := []string{"at", "cho_g", "protein_g"}

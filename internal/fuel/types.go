@@ -5,7 +5,8 @@ import (
 	"time"
 )
 
-// Request is the JSON request of issue 3, plus the extras the web app needs.
+// Request is a plan's JSON request: the athlete, the event and the plan's
+// kind, plus the extras the web app needs.
 // Fields a kind does not need may be absent.
 type Request struct {
 	Kind          string            `json:"kind" validate:"required,oneof=loading race repletion week"`

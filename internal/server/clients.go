@@ -168,20 +168,16 @@ func (s *Server) clientPage(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	if s.ClientPlansSection != nil {
-		if d.Plans, err = s.ClientPlansSection(r, c); err != nil {
-			s.ServerError(w, r, err)
-			return
-		}
+	if d.Plans, err = s.clientPlansSection(r, c); err != nil {
+		s.ServerError(w, r, err)
+		return
 	}
-	if s.ClientLinkSection != nil {
-		if d.Link, err = s.ClientLinkSection(r, c); err != nil {
-			s.ServerError(w, r, err)
-			return
-		}
+	if d.Link, err = s.clientLinkSection(r, c); err != nil {
+		s.ServerError(w, r, err)
+		return
 	}
-	if s.ClientBodyMassChart != nil && len(masses) > 1 {
-		if d.BodyMassChart, err = s.ClientBodyMassChart(r, c, masses); err != nil {
+	if len(masses) > 1 {
+		if d.BodyMassChart, err = s.clientBodyMassChart(r, c, masses); err != nil {
 			s.ServerError(w, r, err)
 			return
 		}

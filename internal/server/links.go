@@ -29,7 +29,6 @@ const defaultLinkExpiryDays = 90
 // mountLinkRoutes adds the staff routes (inside the signed-in group; the
 // cross-origin protection of the router covers the POSTs).
 func (s *Server) mountLinkRoutes(r chi.Router) {
-	s.ClientLinkSection = s.clientLinkSection
 	r.Post("/clients/{clientID}/links", s.createClientLink)
 	r.Post("/clients/{clientID}/links/{linkID}/revoke", s.revokeClientLink)
 }

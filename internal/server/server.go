@@ -9,7 +9,6 @@ import (
 	"net/http"
 	"time"
 
-	"github.com/a-h/templ"
 	"github.com/alexedwards/scs/v2"
 	lru "github.com/hashicorp/golang-lru/v2"
 
@@ -43,16 +42,6 @@ type Server struct {
 	calendars *lru.Cache[string, []byte]
 	// charts keeps drawn charts by a hash of their input (see drawn).
 	charts *chartCache
-
-	// ClientPlansSection, when set (by mountPlanRoutes), renders the plans
-	// section of a client's page.
-	ClientPlansSection func(r *http.Request, c store.Client) (templ.Component, error)
-	// ClientBodyMassChart, when set, renders a body-mass trend beside the
-	// body-mass history on a client's page.
-	ClientBodyMassChart func(r *http.Request, c store.Client, history []store.BodyMass) (templ.Component, error)
-	// ClientLinkSection, when set (by mountLinkRoutes), renders the client
-	// links section of a client's page.
-	ClientLinkSection func(r *http.Request, c store.Client) (templ.Component, error)
 
 	secureCookies bool // served behind TLS: also send HSTS
 	handler       http.Handler
