@@ -108,6 +108,7 @@ func (d *doc) body() {
 	d.facts()
 	d.dayTable()
 	d.eventFigures()
+	d.raceParts()
 	d.repletion()
 	d.findings()
 	d.feeds()

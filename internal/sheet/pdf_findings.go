@@ -114,6 +114,9 @@ func (d *doc) subject(subj string) string {
 	case "plan", "":
 		return "Plan"
 	}
+	if w, ok := d.raceSubject(parts); ok {
+		return w
+	}
 	return subj
 }
 

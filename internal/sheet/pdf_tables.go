@@ -153,7 +153,9 @@ func (d *doc) dayTable() {
 func (d *doc) eventFigures() {
 	p := d.s.Plan
 	var rows []pair
-	if m := p.PreEventMeal; m != nil {
+	// A stage race's meals and in-stage figures are in its stages table.
+	stages := len(p.Stages) > 0
+	if m := p.PreEventMeal; m != nil && !stages {
 		v := fmt.Sprintf("%s g carbohydrate (%s g/kg) at %s, %s h before the start.",
 			num(m.ChoG, 0), strconv.FormatFloat(m.ChoGPerKg, 'f', 1, 64), m.At.In(d.loc).Format("Mon 2 Jan 15:04"), num(m.HoursBefore, 1))
 		// Stored suggestions are keyed by the date in the time's own offset;
@@ -165,13 +167,16 @@ func (d *doc) eventFigures() {
 		}
 		rows = append(rows, pair{"Pre-event meal", v})
 	}
-	if e := p.DuringEvent; e != nil {
+	if e := p.DuringEvent; e != nil && !stages {
 		v := fmt.Sprintf("%s g/h over %s, %s g in all.", num(e.ChoGPerH, 0), hoursWords(e.DurationMin), num(e.TotalChoG, 0))
 		if e.ChoGPerH == 0 {
 			v = "No carbohydrate needed during an event of " + hoursWords(e.DurationMin) + "."
 		}
 		if e.Overridden {
 			v += " Set by the dietitian (override)."
+		}
+		if len(e.Segments) > 0 {
+			v += " Leg by leg below: none in the swim."
 		}
 		rows = append(rows, pair{"In-event carbohydrate", v})
 	}
