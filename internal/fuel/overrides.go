@@ -84,7 +84,14 @@ func (p *planner) applyFeedOverrides(d *Day, dp *dayPlan, fixed []bool) {
 				d.ChoGPerKg = round1(fixedSum / p.body.MassKg)
 			}
 			d.Overridden = true
-			macros(d, p.body.MassKg, p.body.FFMKg, *d.ExerciseEnergyKcal, dp.loadDay)
+			if p.feedOnly[d.Date] {
+				// A day inside the race is what its feeds carry, protein
+				// and energy too: the daily protein target would put
+				// grams on the day that no feed holds.
+				p.dayIsItsFeeds(d, d.Feeds)
+			} else {
+				macros(d, p.body.MassKg, p.body.FFMKg, *d.ExerciseEnergyKcal, dp.loadDay)
+			}
 		}
 	} else {
 		w := weights[:0]

@@ -94,10 +94,8 @@ func randomRequest(r *rand.Rand) Request {
 		}
 	}
 	start := time.Date(2027, month, day, 5+r.IntN(12), 15*r.IntN(4), 0, 0, zone)
-	// Events from 20 min to about 12 h. Not yet up to the request's 48 h
-	// ceiling: there the generator finds an event day of a two-day event,
-	// with a feed override, whose day protein is not what its feeds carry.
-	durMin := 20 + r.Float64()*700
+	// Events from 20 min up to the request's 48 h ceiling.
+	durMin := 20 + r.Float64()*(48*60-20)
 	ev := &Event{StartsAt: start, Modality: mods[r.IntN(len(mods))], ExpectedDurationMin: durMin}
 	if r.IntN(2) == 0 {
 		ev.DistanceKm = ptr(1 + r.Float64()*200)
