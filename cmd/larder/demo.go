@@ -8,6 +8,7 @@ import (
 	"os"
 
 	"larder/internal/demo"
+	"larder/internal/store"
 )
 
 // runDemo loads the demo practice (again, harmlessly) and prints its login.
@@ -19,7 +20,7 @@ func runDemo(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
-	st, _, closeDB, err := connect(ctx, *dataDir, newLogger(stderr))
+	st, _, closeDB, err := connect(ctx, *dataDir, newLogger(stderr), store.PoolOptions{})
 	if err != nil {
 		fmt.Fprintln(stderr, "larder:", err)
 		return 1

@@ -5,6 +5,8 @@ import (
 	"flag"
 	"fmt"
 	"io"
+
+	"larder/internal/store"
 )
 
 // runMigrate applies any migrations not yet applied and says how many ran.
@@ -15,7 +17,7 @@ func runMigrate(ctx context.Context, args []string, stdout, stderr io.Writer) in
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
-	_, applied, closeDB, err := connect(ctx, *dataDir, newLogger(stderr))
+	_, applied, closeDB, err := connect(ctx, *dataDir, newLogger(stderr), store.PoolOptions{})
 	if err != nil {
 		fmt.Fprintln(stderr, "larder:", err)
 		return 1

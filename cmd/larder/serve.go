@@ -40,32 +40,54 @@ func newLogger(w io.Writer) *slog.Logger {
 
 // connect opens the database (DATABASE_URL or the private cluster), checks
 // it answers and applies any migrations not yet applied. close releases the
-// pool and stops the private cluster.
-func connect(ctx context.Context, dataDir string, log *slog.Logger) (st *store.Store, applied int, close func(), err error) {
+// pool and stops the private cluster. opt's limits hold for the pool handed
+// back; migrations run on a pool of their own without statement limits, since
+// one may rewrite a large table for longer than a page may wait.
+func connect(ctx context.Context, dataDir string, log *slog.Logger, opt store.PoolOptions) (st *store.Store, applied int, close func(), err error) {
 	dsn, cleanup, err := openDatabase(ctx, dataDir, log)
 	if err != nil {
 		return nil, 0, nil, err
 	}
-	pool, err := pgxpool.New(ctx, dsn)
-	if err == nil {
-		pingCtx, cancel := context.WithTimeout(ctx, 15*time.Second)
-		err = pool.Ping(pingCtx)
-		cancel()
+	open := func(opt store.PoolOptions) (*pgxpool.Pool, error) {
+		pool, err := store.OpenPool(ctx, dsn, opt)
 		if err != nil {
-			pool.Close()
+			return nil, err
 		}
+		pingCtx, cancel := context.WithTimeout(ctx, 15*time.Second)
+		defer cancel()
+		if err := pool.Ping(pingCtx); err != nil {
+			pool.Close()
+			return nil, err
+		}
+		return pool, nil
 	}
+	migratePool, err := open(store.PoolOptions{MaxConns: 2})
 	if err != nil {
 		cleanup()
 		return nil, 0, nil, fmt.Errorf("cannot reach the database: %w", err)
 	}
-	close = func() { pool.Close(); cleanup() }
-	applied, err = store.Migrate(ctx, pool)
+	applied, err = store.Migrate(ctx, migratePool)
+	migratePool.Close()
 	if err != nil {
-		close()
+		cleanup()
 		return nil, 0, nil, err
 	}
-	return store.New(pool), applied, close, nil
+	pool, err := open(opt)
+	if err != nil {
+		cleanup()
+		return nil, 0, nil, fmt.Errorf("cannot reach the database: %w", err)
+	}
+	return store.New(pool), applied, func() { pool.Close(); cleanup() }, nil
+}
+
+// envInt reads a whole-number environment variable, or def when unset or
+// not a number (the flag's own parsing then reports nothing: the default
+// shown in --help is what applies).
+func envInt(name string, def int) int {
+	if v, err := strconv.Atoi(os.Getenv(name)); err == nil {
+		return v
+	}
+	return def
 }
 
 func runServe(ctx context.Context, args []string, stdout, stderr io.Writer) int {
@@ -76,18 +98,23 @@ func runServe(ctx context.Context, args []string, stdout, stderr io.Writer) int 
 	withDemo := fs.Bool("demo", envBool("LARDER_DEMO"), "load the demo practice before serving (env LARDER_DEMO)")
 	password := fs.String("password", os.Getenv("LARDER_DEMO_PASSWORD"), "password of the demo login with --demo (env LARDER_DEMO_PASSWORD)")
 	secure := fs.Bool("secure-cookies", envBool("LARDER_SECURE_COOKIES"), "mark the session cookie Secure; set when served over HTTPS (env LARDER_SECURE_COOKIES)")
+	maxConns := fs.Int("db-max-conns", envInt("LARDER_DB_MAX_CONNS", int(store.DefaultMaxConns())), "most database connections open at once; the default is 4 a CPU, at least 4 (env LARDER_DB_MAX_CONNS)")
 	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	if *maxConns < 1 || *maxConns > 10000 {
+		fmt.Fprintln(stderr, "larder: --db-max-conns must be a whole number from 1 to 10000")
 		return 2
 	}
 	log := newLogger(stderr)
 
-	st, applied, closeDB, err := connect(ctx, *dataDir, log)
+	st, applied, closeDB, err := connect(ctx, *dataDir, log, store.ServeLimits(int32(*maxConns)))
 	if err != nil {
 		fmt.Fprintln(stderr, "larder:", err)
 		return 1
 	}
 	defer closeDB()
-	log.Info("database ready", "migrations_applied", applied)
+	log.Info("database ready", "migrations_applied", applied, "max_conns", st.Pool.Config().MaxConns)
 
 	if *withDemo {
 		login, err := demo.Load(ctx, st, *password)

@@ -72,9 +72,10 @@ func TestCommandsAgainstDatabaseURL(t *testing.T) {
 func TestServeAnswersAndShutsDown(t *testing.T) {
 	t.Setenv("DATABASE_URL", testdb.DSN(t))
 	ctx, cancel := context.WithCancel(context.Background())
-	out := &syncBuffer{}
+	t.Setenv("LARDER_DB_MAX_CONNS", "5") // the flag below wins over it
+	out, logs := &syncBuffer{}, &syncBuffer{}
 	done := make(chan int, 1)
-	go func() { done <- runServe(ctx, []string{"--addr", "127.0.0.1:0"}, out, io.Discard) }()
+	go func() { done <- runServe(ctx, []string{"--addr", "127.0.0.1:0", "--db-max-conns", "3"}, out, logs) }()
 
 	addr := regexp.MustCompile(`serving on (http://\S+)/`)
 	var base string
@@ -97,6 +98,9 @@ func TestServeAnswersAndShutsDown(t *testing.T) {
 	if res.StatusCode != http.StatusOK || !strings.Contains(string(body), `"status":"ok"`) {
 		t.Fatalf("healthz: %d %s", res.StatusCode, body)
 	}
+	if !strings.Contains(logs.String(), "max_conns=3") {
+		t.Errorf("--db-max-conns 3 not in effect; log: %s", logs.String())
+	}
 	cancel() // what SIGINT/SIGTERM do through main's context
 	select {
 	case code := <-done:
@@ -112,5 +116,21 @@ func TestServeRejectsBadFlags(t *testing.T) {
 	var errs bytes.Buffer
 	if code := runServe(context.Background(), []string{"--no-such-flag"}, io.Discard, &errs); code != 2 {
 		t.Fatalf("code %d", code)
+	}
+	errs.Reset()
+	if code := runServe(context.Background(), []string{"--db-max-conns", "0"}, io.Discard, &errs); code != 2 ||
+		!strings.Contains(errs.String(), "--db-max-conns must be a whole number from 1 to 10000") {
+		t.Fatalf("--db-max-conns 0: code %d, %q", code, errs.String())
+	}
+}
+
+func TestDBMaxConnsFromEnvironment(t *testing.T) {
+	t.Setenv("LARDER_DB_MAX_CONNS", "7")
+	if got := envInt("LARDER_DB_MAX_CONNS", 4); got != 7 {
+		t.Errorf("LARDER_DB_MAX_CONNS=7 read as %d", got)
+	}
+	t.Setenv("LARDER_DB_MAX_CONNS", "many")
+	if got := envInt("LARDER_DB_MAX_CONNS", 4); got != 4 {
+		t.Errorf("LARDER_DB_MAX_CONNS=many read as %d, want the default 4", got)
 	}
 }

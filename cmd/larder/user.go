@@ -72,7 +72,7 @@ func userAdd(ctx context.Context, args []string, stdin io.Reader, stdout, stderr
 		}
 		return 2
 	}
-	st, _, closeDB, err := connect(ctx, *dataDir, newLogger(stderr))
+	st, _, closeDB, err := connect(ctx, *dataDir, newLogger(stderr), store.PoolOptions{})
 	if err != nil {
 		fmt.Fprintln(stderr, "larder:", err)
 		return 1
@@ -110,7 +110,7 @@ func userList(ctx context.Context, args []string, stdout, stderr io.Writer) int 
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
-	st, _, closeDB, err := connect(ctx, *dataDir, newLogger(stderr))
+	st, _, closeDB, err := connect(ctx, *dataDir, newLogger(stderr), store.PoolOptions{})
 	if err != nil {
 		fmt.Fprintln(stderr, "larder:", err)
 		return 1

@@ -60,6 +60,20 @@ func (s *Server) recoverPanics(next http.Handler) http.Handler {
 	})
 }
 
+// timeLimit gives each request a deadline: the database calls it makes
+// (waiting for a pooled connection included) give up when it passes, and
+// the handler answers with the "try again" page (see ServerError) instead of
+// holding the browser, and a connection, for as long as the database hangs.
+// The context is what bounds the work; nothing here writes a response, so a
+// handler that finishes in time is unaffected.
+func (s *Server) timeLimit(next http.Handler) http.Handler {
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		ctx, cancel := context.WithTimeout(r.Context(), s.requestTimeout)
+		defer cancel()
+		next.ServeHTTP(w, r.WithContext(ctx))
+	})
+}
+
 // loadUser puts the signed-in user (if any) into the request context,
 // after keeping the session's idle limit (auth.Touch). The user and the
 // session's row are read from the database on every request, so a disabled

@@ -12,7 +12,7 @@ import (
 
 func (s *Server) routes() http.Handler {
 	r := chi.NewRouter()
-	r.Use(middleware.RequestID, s.logRequests, s.recoverPanics, securityHeaders(s.secureCookies))
+	r.Use(middleware.RequestID, s.logRequests, s.recoverPanics, securityHeaders(s.secureCookies), s.timeLimit)
 	// Cross-site POSTs are refused by the browser's own Sec-Fetch-Site and
 	// Origin headers (net/http CrossOriginProtection), so forms need no token.
 	r.Use(http.NewCrossOriginProtection().Handler)

@@ -26,7 +26,15 @@ type Config struct {
 	SessionCleanup time.Duration
 	// Now returns the current time; nil means time.Now (tests fix the clock).
 	Now func() time.Time
+	// RequestTimeout bounds a request's work (its database calls, the wait
+	// for a pooled connection among them); 0 means DefaultRequestTimeout.
+	RequestTimeout time.Duration
 }
+
+// DefaultRequestTimeout is how long a page may wait on the database before
+// it is answered "try again": longer than any page takes when the database
+// is well, short enough that a hung database does not hold every browser.
+const DefaultRequestTimeout = 15 * time.Second
 
 // Server holds what every handler needs. Handlers of other files (plans,
 // foods) use the same fields and helpers.
@@ -43,8 +51,9 @@ type Server struct {
 	// charts keeps drawn charts by a hash of their input (see drawn).
 	charts *chartCache
 
-	secureCookies bool // served behind TLS: also send HSTS
-	handler       http.Handler
+	secureCookies  bool // served behind TLS: also send HSTS
+	requestTimeout time.Duration
+	handler        http.Handler
 }
 
 // New builds the server and its routes.
@@ -66,7 +75,11 @@ func New(cfg Config) *Server {
 		calendars:  newCalendarCache(),
 		charts:     newChartCache(),
 
-		secureCookies: cfg.SecureCookies,
+		secureCookies:  cfg.SecureCookies,
+		requestTimeout: cfg.RequestTimeout,
+	}
+	if s.requestTimeout <= 0 {
+		s.requestTimeout = DefaultRequestTimeout
 	}
 	s.handler = s.routes()
 	return s
