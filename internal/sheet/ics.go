@@ -200,7 +200,8 @@ const (
 
 // ICSPlanEvents turns a plan into VEVENTs: one per feed of every day, and
 // the event itself carrying the in-event g/h (the engine's "during event"
-// feed is that, so it is not listed twice). UIDs hold the plan's id, the
+// feed is that, so it is not listed twice) and its legs; a stage race has
+// an entry per stage and an event over a day one per block of hours. UIDs hold the plan's id, the
 // date and the feed's place in the day, and the host part names the app,
 // so a revised plan updates the same entries.
 func ICSPlanEvents(p ICSPlan) []ICSEvent {
@@ -235,7 +236,9 @@ func ICSPlanEvents(p ICSPlan) []ICSEvent {
 			out = append(out, e)
 		}
 	}
-	if p.EventStart != nil {
+	out = append(out, icsRaceEntries(p, uid)...)
+	// A stage race's entries are its stages'.
+	if p.EventStart != nil && len(p.Plan.Stages) == 0 {
 		name := p.EventName
 		if name == "" {
 			name = "Event"
@@ -250,6 +253,7 @@ func ICSPlanEvents(p ICSPlan) []ICSEvent {
 		if m := p.Plan.PreEventMeal; m != nil {
 			desc = append(desc, "Pre-event meal at "+m.At.Format("15:04")+": carbohydrate "+icsGrams(m.ChoG)+" g.")
 		}
+		desc = append(desc, icsLegs(p.Plan.DuringEvent)...)
 		desc = append(desc, fuel.Caution)
 		e.Description = strings.Join(desc, "\n")
 		out = append(out, e)
