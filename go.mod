@@ -3,6 +3,7 @@ module larder
 go 1.26.0
 
 require (
+	codeberg.org/go-fonts/liberation v0.5.0
 	filippo.io/age v1.3.2
 	github.com/a-h/templ v0.3.1100
 	github.com/alexedwards/scs/pgxstore v0.0.0-20240316134038-7e11d57e8885
@@ -16,11 +17,12 @@ require (
 	github.com/muktihari/fit v0.26.1
 	github.com/pressly/goose/v3 v3.30.0
 	golang.org/x/crypto v0.59.0
+	golang.org/x/image v0.30.0
+	golang.org/x/text v0.44.0
 	gonum.org/v1/plot v0.17.0
 )
 
 require (
-	codeberg.org/go-fonts/liberation v0.5.0 // indirect
 	codeberg.org/go-latex/latex v0.2.0 // indirect
 	codeberg.org/go-pdf/fpdf v0.11.1 // indirect
 	filippo.io/hpke v0.4.0 // indirect
@@ -48,12 +50,10 @@ require (
 	github.com/natefinch/atomic v1.0.1 // indirect
 	github.com/sethvargo/go-retry v0.5.0 // indirect
 	go.uber.org/multierr v1.11.0 // indirect
-	golang.org/x/image v0.30.0 // indirect
 	golang.org/x/mod v0.42.0 // indirect
 	golang.org/x/net v0.62.0 // indirect
 	golang.org/x/sync v0.25.0 // indirect
 	golang.org/x/sys v0.50.0 // indirect
-	golang.org/x/text v0.44.0 // indirect
 	golang.org/x/tools v0.52.0 // indirect
 )
 

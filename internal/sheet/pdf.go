@@ -147,25 +147,18 @@ func newDoc(s Sheet, paper Paper) (*doc, error) {
 	f.SetAuthor(clean(s.PracticeName), true)
 	f.SetCreator("Larder", true)
 	f.SetSubject(clean("Plan sheet for "+s.ClientName), true)
-	cp := f.UnicodeTranslatorFromDescriptor("cp1252")
+	addFonts(f)
 	if err := f.Error(); err != nil {
-		return nil, fmt.Errorf("sheet: code page: %w", err)
+		return nil, fmt.Errorf("sheet: fonts: %w", err)
 	}
 	d := &doc{f: f, s: s, w: pw - 2*marginX, limit: ph - footerHeight - 3}
-	d.tr = func(x string) string { return cp(toCP1252.Replace(clean(x))) }
+	d.tr = printable
 	d.loc, d.zone = planZone(s)
 	f.SetHeaderFunc(d.header)
 	f.SetFooterFunc(d.footer)
 	f.AddPage()
 	return d, nil
 }
-
-// toCP1252 replaces characters the core fonts' code page lacks with plain
-// equivalents, so that none turns into a stray dot.
-var toCP1252 = strings.NewReplacer(
-	"≈", "~", "≤", "<=", "≥", ">=", "→", "->", "←", "<-", "−", "-", "‑", "-",
-	"✓", "", "◆", "", "▲", "", "✖", "", "✎", "", "⚠", "", "τ", "tau", "\u00a0", " ", "\u202f", " ",
-)
 
 // clean makes typed text safe to print: valid UTF-8 (fpdf's metadata
 // writer panics on anything else), tabs as spaces, no other control
@@ -212,15 +205,13 @@ func (d *doc) color(c rgb) { d.f.SetTextColor(c.r, c.g, c.b) }
 func (d *doc) fill(c rgb)  { d.f.SetFillColor(c.r, c.g, c.b) }
 func (d *doc) draw(c rgb)  { d.f.SetDrawColor(c.r, c.g, c.b) }
 func (d *doc) font(style string, size float64) {
-	d.f.SetFont("Helvetica", style, size)
+	d.f.SetFont(fontFamily, style, size)
 }
 
 // lines splits text (in the current font) to fit width w.
 func (d *doc) lines(text string, w float64) []string {
 	var out []string
-	for _, l := range d.f.SplitLines([]byte(d.tr(text)), w) {
-		out = append(out, string(l))
-	}
+	out = d.f.SplitText(d.tr(text), w)
 	if len(out) == 0 {
 		out = []string{""}
 	}

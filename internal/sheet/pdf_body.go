@@ -18,7 +18,7 @@ func (d *doc) header() {
 	f := d.f
 	pw, ph := f.GetPageSize()
 	if mark := d.watermark(); mark != "" {
-		f.SetFont("Helvetica", "B", 46)
+		f.SetFont(fontFamily, "B", 46)
 		f.SetTextColor(243, 205, 198)
 		text := d.tr(mark)
 		tw := f.GetStringWidth(text)

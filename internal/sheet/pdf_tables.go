@@ -411,7 +411,7 @@ func (d *doc) feeds() {
 		// Advice the day before already gave (the second of two load days)
 		// is not printed again: the days sit one under the other.
 		if len(day.Advice) > 0 && !slices.Equal(day.Advice, prevAdvice) {
-			d.font("I", 7.6)
+			d.font("", 7.6)
 			d.color(colMuted)
 			for _, a := range day.Advice {
 				d.need(3.4)

@@ -214,15 +214,53 @@ func TestPlanZone(t *testing.T) {
 	}
 }
 
-func TestTextOutsideCodePage(t *testing.T) {
-	d, err := newDoc(Sheet{Title: "x"}, A4)
+func TestTextOutsideTheFont(t *testing.T) {
+	cases := map[string]string{
+		// Letters the font has print as typed, a base letter and its
+		// combining accent as the one composed letter.
+		"≈ 35 % – café":       "≈ 35 % – café",
+		"Nguye\u0302\u0303n":  "Nguyễn",
+		"Łukasz Żółć-Nguyễn":  "Łukasz Żółć-Nguyễn",
+		"Ψ Дарья":             "Ψ Дарья",
+		"non\u2011breaking ✓": "non-breaking ",
+		// Letters it lacks are marked, not dropped or drawn as empty boxes.
+		"李 🙂":       "? ?",
+		"a\tb\x00c": "a bc",
+	}
+	for in, want := range cases {
+		if got := printable(in); got != want {
+			t.Errorf("printable(%q) = %q, want %q", in, got, want)
+		}
+	}
+}
+
+// A name in letters outside Western Europe prints as typed: the text a
+// PDF reader extracts from the sheet is the name itself.
+func TestUnicodeNames(t *testing.T) {
+	req, plan := example(t, "marathon-loading.json")
+	s := sheetFor(req, plan, StatusPublished)
+	s.ClientName = "Łukasz Żółć-Nguyễn"
+	s.ClientCautions = []string{"Ăn chay – không sữa (no dairy)", "Аллергия на орехи"}
+	s.Title = "Plan für den Ölberg-Lauf"
+	s.PracticeName = "Ősz Sports Nutrition"
+	pdf, err := Render(s, A4)
 	if err != nil {
 		t.Fatal(err)
 	}
-	// "–" is 0x96 and "é" 0xE9 in Windows-1252; "≈" has no place there and
-	// becomes "~" instead of a stray dot.
-	if got := d.tr("≈ 35 % – café"); got != "~ 35 % \x96 caf\xe9" {
-		t.Errorf("tr = %q", got)
+	if dir := os.Getenv("LARDER_SHEET_OUT"); dir != "" { // to look at it
+		_ = os.WriteFile(filepath.Join(dir, "unicode-names-a4.pdf"), pdf, 0o644)
+	}
+	text, ok := sheettest.Text(t, pdf)
+	if !ok {
+		t.Skip("pdftotext not installed")
+	}
+	for _, w := range []string{"Łukasz Żółć-Nguyễn", "Ăn chay – không sữa (no dairy)", "Аллергия на орехи", "Plan für den Ölberg-Lauf", "Ősz Sports Nutrition"} {
+		if !strings.Contains(text, w) {
+			t.Errorf("text lacks %q\n%s", w, text)
+		}
+	}
+	if strings.Contains(text, "?") {
+		t.Errorf("a letter printed as \"?\":\n%s", text)
 	}
 }
 
