@@ -262,3 +262,31 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 	}
 	axeCheck(t, ctx, src, "plan draft")
 }
+
+// TestBrowserAxePhoneRaceDays checks the phone page's race days at phone
+// width: two stages of a stage race on one day, a day inside a 48 h race
+// with its blocks of hours, and an Ironman's legs.
+func TestBrowserAxePhoneRaceDays(t *testing.T) {
+	ctx := browserCtx(t)
+	src := axeSource(t)
+	r := newRaceLinks(t)
+	if err := chromedp.Do(ctx, chromedp.EmulateViewport(390, 844)); err != nil {
+		t.Fatal(err)
+	}
+	oslo := time.FixedZone("+02:00", 2*3600)
+	for _, v := range []struct {
+		page, file, wait string
+		at               time.Time
+	}{
+		{"phone page, two stages in a day", "stage-race-4-day.json", "#stage-4", time.Date(2027, 5, 15, 6, 0, 0, 0, oslo)},
+		{"phone page, inside a 48 h race", "ultra-48h-race.json", "#blocks-list", time.Date(2027, 8, 21, 12, 0, 0, 0, oslo)},
+		{"phone page, an Ironman's legs", "ironman-race.json", "#legs-list", time.Date(2027, 7, 4, 4, 0, 0, 0, oslo)},
+	} {
+		r.at(v.at)
+		axeVisit(t, ctx, src, v.page, r.a.srv.URL+"/c/"+r.tokens[v.file])
+		if err := chromedp.Do(ctx, chromedp.WaitVisible(chromedp.CSS(v.wait))); err != nil {
+			t.Errorf("%s: %s not shown: %v", v.page, v.wait, err)
+		}
+		shot(t, ctx, "phone-"+strings.TrimSuffix(v.file, ".json"))
+	}
+}

@@ -241,10 +241,15 @@ func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
 		if f.ProteinG > 0 {
 			fv.ProteinG = web.Num(f.ProteinG, 0)
 		}
+		if l, ok := raceFeedLabel(p, f); ok && f.Label == "during event" {
+			fv.Label = l
+		}
 		t.Feeds = append(t.Feeds, fv)
 	}
+	t.Race = raceToday(p, d)
 	ev := p.Version.Request.Event
-	if ev == nil || ev.StartsAt.In(p.loc).Format(time.DateOnly) != d.Date {
+	// A stage race's days show their stages instead (raceToday).
+	if ev == nil || ev.StartsAt.In(p.loc).Format(time.DateOnly) != d.Date || len(plan.Stages) > 0 {
 		return t
 	}
 	e := &web.ClientEventDay{Name: "Your event", Start: ev.StartsAt.In(p.loc).Format("15:04")}
