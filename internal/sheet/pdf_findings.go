@@ -33,7 +33,7 @@ func (d *doc) findings() {
 	textW := d.w - 33
 	for _, fd := range shown {
 		d.font("", 8.6)
-		ml := d.lines(d.subject(fd.Subject)+": "+fd.Message, textW)
+		ml := d.lines(d.findingText(fd.Subject, fd.Message), textW)
 		d.font("", 7.2)
 		sl := d.lines("Checked against: "+fd.Source, textW)
 		h := float64(len(ml))*3.8 + float64(len(sl))*3.2 + 1.4
@@ -75,6 +75,16 @@ func (d *doc) findings() {
 	}
 	f.CellFormat(d.w-4.5, 4, d.tr(msg), "", 1, "L", false, 0, "")
 	d.color(colInk)
+}
+
+// findingText is a finding's subject and message; a message that starts
+// with its subject ("Stage 2 starts …") is not prefixed with it again.
+func (d *doc) findingText(subj, msg string) string {
+	s := d.subject(subj)
+	if strings.HasPrefix(msg, s+" ") || strings.HasPrefix(msg, s+":") {
+		return msg
+	}
+	return s + ": " + msg
 }
 
 // subject names what a finding concerns, in words.

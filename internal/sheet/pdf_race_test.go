@@ -78,6 +78,18 @@ func TestSheetStageRace(t *testing.T) {
 			}
 		}
 	}
+	// The feeds name the stage their in-stage carbohydrate belongs to.
+	for i, st := range plan.Stages {
+		if st.DuringEvent.ChoGPerH > 0 {
+			contains(t, text, st.StartsAt.In(d.loc).Format("15:04")+" during stage "+strconv.Itoa(i+1)+" "+num(st.DuringEvent.TotalChoG, 0))
+		}
+	}
+	// A finding's subject is not printed twice ("Stage 2: Stage 2 …").
+	for i := range plan.Stages {
+		if w := "Stage " + strconv.Itoa(i+1) + ": Stage " + strconv.Itoa(i+1); strings.Contains(text, w) {
+			t.Errorf("sheet prints %q", w)
+		}
+	}
 	// The race-day block no longer prints stage 1's meal as the race's.
 	if strings.Contains(text, "Pre-event meal "+num(plan.PreEventMeal.ChoG, 0)) {
 		t.Error("the stage race's sheet prints stage 1's pre-event meal as the race's")
@@ -120,6 +132,7 @@ func TestSheetHourBlocks(t *testing.T) {
 			nights++
 		}
 	}
+	contains(t, text, plan.DuringEvent.Blocks[1].From.In(d.loc).Format("15:04")+" race, next 4 h "+num(plan.DuringEvent.Blocks[1].ChoG, 0))
 	if got := strings.Count(text, "night: warm"); got != nights || nights == 0 {
 		t.Errorf("%d night blocks printed, the plan has %d", got, nights)
 	}

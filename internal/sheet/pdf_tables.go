@@ -394,7 +394,7 @@ func (d *doc) feeds() {
 		}
 		var rows []feedRow
 		for i, fd := range day.Feeds {
-			rows = append(rows, feedRow{at: fd.At.In(d.loc).Format("15:04"), label: fd.Label, cho: fd.ChoG, prot: fd.ProteinG,
+			rows = append(rows, feedRow{at: fd.At.In(d.loc).Format("15:04"), label: d.feedLabel(fd), cho: fd.ChoG, prot: fd.ProteinG,
 				overridden: fd.Overridden, suggestion: d.s.Suggestions[menu.FeedKey("day", day.Date, i)]})
 		}
 		title := dayWords(day.Date) + " · " + day.Role + " · " + num(day.ChoG, 0) + " g carbohydrate (" +
