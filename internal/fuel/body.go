@@ -157,14 +157,17 @@ func metAt(modality string, pct float64) float64 {
 	if g.Key == "" {
 		g = metTable["other"]
 	}
+	// The table's easy, moderate and hard values sit at the intensities a
+	// session logged as easy, moderate and hard is taken to be.
 	mid := (g.Min + g.Max) / 2
+	easy, mod, hard := gEasy.Min, gModerate.Min, gHard.Min
 	switch {
-	case pct <= 50:
+	case pct <= easy:
 		return g.Min
-	case pct <= 65:
-		return g.Min + (pct-50)*(mid-g.Min)/15
-	case pct <= 80:
-		return mid + (pct-65)*(g.Max-mid)/15
+	case pct <= mod:
+		return g.Min + (pct-easy)*(mid-g.Min)/(mod-easy)
+	case pct <= hard:
+		return mid + (pct-mod)*(g.Max-mid)/(hard-mod)
 	}
 	return g.Max
 }

@@ -61,7 +61,9 @@
 //     fat, so the intake sets where stores settle; the fasting liver loses
 //     a third to a half overnight and slows near a floor, gluconeogenesis
 //     sparing it in exercise), muscle synthesis from emptiness, the
-//     post-exercise window and the glucose supply, slowing towards 220
+//     post-exercise window (a rapid phase of hours, and after a
+//     near-maximal bout that recruits every fibre type a slow one of a day
+//     or two) and the glucose supply, slowing towards 220
 //     mmol/kg and calibrated against published refuelling studies
 //     (calibration_test.go), a depleted floor of 25 mmol/kg, exercise use from energy × carbohydrate share with intake
 //     covering at most about 35% at hard efforts; the stores run out when

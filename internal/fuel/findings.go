@@ -343,10 +343,10 @@ func (p *planner) checkDay(d *Day) {
 		}
 		if !prevAt.IsZero() {
 			gap := f.At.Sub(prevAt).Hours()
-			if gap > 5 {
+			if gap > gMealEvery.Max {
 				p.find("feed-gap", LevelNote, fs(), SrcACSM,
-					"%.1f h pass without food before the %s at %s; protein and carbohydrate are best spread every 3–5 h.",
-					gap, f.Label, f.At.Format("15:04"))
+					"%.1f h pass without food before the %s at %s; protein and carbohydrate are best spread every %g–%g h.",
+					gap, f.Label, f.At.Format("15:04"), gMealEvery.Min, gMealEvery.Max)
 			}
 		}
 		prevAt = f.At
@@ -381,7 +381,7 @@ func (p *planner) checkDuring(de *DuringEvent) {
 			"Over %g g/h needs multiple transportable carbohydrates (glucose with fructose), practised in training.", gDuring3060.Max)
 	}
 	useGPH := math.Round(p.evUseGPH)
-	if p.evPct >= 67 && de.ChoGPerH > 0 {
+	if p.evPct >= gCoverPct.Max && de.ChoGPerH > 0 {
 		p.find("intake-covers-third", LevelNote, "during_event", SrcCommon,
 			"At this effort the body uses about %g g of carbohydrate per hour; even the highest practical intake covers only about a third (≈%.0f%%) of it.",
 			useGPH, gHardCover.Min*100)
@@ -487,7 +487,7 @@ func (p *planner) checkRepletion(r *Repletion) {
 			}
 			p.find("repletion-protein", lvl, "repletion", SrcACSM,
 				"The first refuelling feed carries %g g protein (about %g g/kg is advised after key sessions).", pg, gRepletionProt.Min)
-			if r.Feeds[0].At.After(p.req.SessionEnd.Add(30 * time.Minute)) {
+			if r.Feeds[0].At.After(p.req.SessionEnd.Add(time.Duration(gRefuelStart.Min * float64(time.Minute)))) {
 				p.find("repletion-delay", LevelCaution, "repletion", SrcIvy,
 					"The first refuelling feed comes %.0f min after the session; waiting 2 h roughly halves the early resynthesis rate.",
 					r.Feeds[0].At.Sub(*p.req.SessionEnd).Minutes())

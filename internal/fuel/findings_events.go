@@ -80,7 +80,7 @@ func (p *planner) preEventCaffeine() {
 			"Caffeine is planned, but the recorded caution \"%s\" rules it out until the client's doctor agrees.", conflict)
 	}
 	p.find("caffeine-cautions", LevelCaution, subj, SrcMaughan, "%s", caffeineCautions)
-	if p.evDurH > 4 {
+	if p.evDurH > gCafLong.Min {
 		p.find("caffeine-long-event", LevelNote, subj, SrcMaughan,
 			"In a long event, lower doses (under 3 mg/kg, about 200 mg) later in the race, with carbohydrate, can keep the effect; count them in the day's total.")
 	}

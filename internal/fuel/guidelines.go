@@ -136,7 +136,9 @@ var coreGuidelines = []Guideline{
 	{"model.body-fat-extreme-men", "the same bounds for men", 0.08, 0.25, "share of body mass", SrcModel},
 	{"model.liver-per-kg", "liver glycogen capacity per kg body mass (gives 112 g at 70 kg, inside 100–120 g)", 1.6, 1.6, "g/kg", SrcModel},
 	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 1.5 h time constant (86% of a meal within 3 h, 93% within 4 h: the 1–4 h pre-event meal timing), at most at the exogenous oxidation ceiling of multiple transportable carbohydrate, 1.75 g/min (Jeukendrup 2014; mixed meals hold glucose and fructose sources)", 105, 1.5, "g/h; h", SrcModel},
-	{"model.window-boost", "post-exercise window of synthesis: the rested rate is this share (Min) of the rate just after exercise, the rest decaying with a time constant (Max), so that feeding 2 h late lowers synthesis over the first 2 h of feeding by about a third (Ivy 1988 measured roughly a half)", 0.35, 1.5, "share; h", SrcModel},
+	{"model.window-boost", "rapid phase of the post-exercise window of synthesis: the rested rate is this share (Min) of the rate just after exercise, the rest decaying with a time constant (Max), so that feeding 2 h late lowers synthesis over the first 2 h of feeding by about 40% (Ivy 1988 measured roughly a half)", 0.35, 1.5, "share; h", SrcModel},
+	{"model.window-slow", "slow phase of the post-exercise window after a near-maximal bout: the synthesis of the extra fibres it recruited fades with this time constant (Jentjens & Jeukendrup 2003, from memory: raised insulin sensitivity after exercise lasts many hours, up to about 48 h)", 24, 24, "h", SrcModel},
+	{"model.fibre-recruitment", "exercise at or above Min %VO2max (near-maximal) recruits all fibre types of the working muscle; below it mainly the type I fibres, about this share (Max) of the fibres (vastus lateralis about half type I, from memory), so after a near-maximal bout 1/Max times the fibres synthesise at the rested rate, the extra fading in the slow phase (Fairchild 2002: glycogen rose alike in type I, IIa and IIb fibres after a near-maximal bout)", 85, 0.5, "% VO2max; share of fibres", SrcModel},
 	{"model.synthesis-supply", "synthesis rises with the carbohydrate absorbed as x/(x+K), K in g per kg body mass per h: more at 1.2 than at 0.8 g/kg/h, levelling off above (Ivy 2004 review: about 1.2 g/kg/h maximises)", 0.4, 0.4, "g/kg/h", SrcModel},
 	{"model.working.swim", "working muscle share of skeletal muscle, swimming", 0.70, 0.70, "share", SrcModel},
 	{"model.working.row", "working muscle share of skeletal muscle, rowing and cross-country skiing", 0.85, 0.85, "share", SrcModel},
@@ -147,11 +149,11 @@ var coreGuidelines = []Guideline{
 	{"model.liver-floor", "below a fifth of its capacity the liver gives up glycogen ever more slowly, in proportion to what is left, so it does not run dry in ordinary exercise", 0.2, 0.2, "share of liver capacity", SrcModel},
 	{"model.gluconeogenesis", "glucose the liver makes from lactate, glycerol and amino acids during exercise, sparing its glycogen", 0.1, 0.1, "g/kg/h", SrcModel},
 	{"model.daily-muscle", "share of uncovered resting and daily-living carbohydrate use drawn from muscle glycogen (the rest from fat)", 0.3, 0.3, "share", SrcModel},
-	{"model.liver-share", "share of absorbed carbohydrate (after resting use) the liver takes first", 0.3, 0.3, "share", SrcModel},
+	{"model.liver-share", "share of absorbed carbohydrate the liver takes on first pass, before resting use and muscle synthesis", 0.3, 0.3, "share", SrcModel},
 	{"fat.upper", "fat share of energy used at most when filling an energy target", 0.35, 0.35, "share of energy", SrcCommon},
 	{"fat.upper-event", "fat share of energy used at most on the event day itself: carbohydrate gets the room and fat is kept moderate around racing", 0.25, 0.25, "share of energy", SrcCommon},
 	{"model.rest-cho-ox", "resting and daily-living carbohydrate use at typical stores, scaled in proportion to stores / typical so intake sets the level stores settle at", 0.17, 0.17, "g/kg/h", SrcModel},
-	{"model.resynthesis-peak", "synthesis rate of empty muscle just after exercise with unlimited glucose supply; with the window and supply terms it gives the 5–8 (Jentjens & Jeukendrup), 8–10 wet (Flynn 2020, Wallis 2008, Pedersen 2008) and one-day loading (Fairchild 2002) rates", 24, 24, "mmol/kg wet muscle/h", SrcModel},
+	{"model.resynthesis-peak", "synthesis rate of empty muscle just after exercise with unlimited glucose supply, calibrated on the 4-h studies; with the window and supply terms it gives rates inside the 5–8 (Jentjens & Jeukendrup, from memory) and 8–10 wet (Flynn 2020, Wallis 2008, Pedersen 2008) ranges, and the one-day load of Fairchild 2002", 24, 24, "mmol/kg wet muscle/h", SrcModel},
 	{"model.cover-easy", "share of carbohydrate use intake can cover at easy efforts (40% VO2max and below); falls to 0.35 at 67% VO2max (≈80% of maximum heart rate)", 0.6, 0.6, "share", SrcModel},
 	{"during.long-floor", "over 2.5 h, the usual practical intake is 60–90 g/h", 60, 90, "g/h", SrcCommon},
 	{"pre-event.earliest", "earliest practical time for a pre-event meal", 5, 5, "h (05:00)", SrcCommon},
@@ -172,6 +174,10 @@ var coreGuidelines = []Guideline{
 	{"model.demanding-session-min", "a session of this many minutes or more is demanding; no ordinary meal in the 2 h (Max) after its end", 90, 2, "min; h", SrcModel},
 	{"pre-event.protein", "protein in the pre-event meal: half a usual meal's 0.3 g/kg, kept low so the meal empties from the stomach", 0.5, 0.5, "share of a meal's protein", SrcModel},
 	{"repletion.feed-every", "speedy refuelling feeds every 30 min", 30, 30, "min", SrcIvy2004},
+	{"model.meal-clear", "no ordinary meal from Min min before a pre-event or pre-session meal (or the start) to Min min after the recovery feed; an ordinary meal falling less than Max min before a session moves to its end", 90, 30, "min; min", SrcModel},
+	{"model.start-since-exercise", "a simulation starts with the working muscle last exercised this many hours before (a trained athlete's usual day): the rapid window phase is closed", 24, 24, "h", SrcModel},
+	{"protein.meal-interval", "protein and carbohydrate spread across the day, every 3–5 h", 3, 5, "h", SrcACSM},
+	{"repletion.start-within", "refuelling starts at once after exercise: a first feed later than this after the session's end is flagged", 30, 30, "min", SrcIvy2004},
 	{"model.next-start-clear", "no ordinary meal from Min h before the next start to Max h after its start", 1, 1.5, "h", SrcModel},
 	{"model.taper-days", "days a loading plan covers before the event when none are given", 7, 7, "days", SrcModel},
 	// Race intensity by duration when none is given: up to Min minutes, Max % VO2max.
@@ -286,12 +292,18 @@ var (
 	gPreProtein    = guideline("pre-event.protein")
 	gRefuelEvery   = guideline("repletion.feed-every")
 	gNextClear     = guideline("model.next-start-clear")
+	gMealClear     = guideline("model.meal-clear")
+	gStartSince    = guideline("model.start-since-exercise")
+	gMealEvery     = guideline("protein.meal-interval")
+	gRefuelStart   = guideline("repletion.start-within")
 	gTaperDays     = guideline("model.taper-days")
 	gRefFat        = guideline("model.reference-fat")
 	gFatExtremeF   = guideline("model.body-fat-extreme")
 	gFatExtremeM   = guideline("model.body-fat-extreme-men")
 	gModelGut      = guideline("model.gut-absorption")
 	gModelBoost    = guideline("model.window-boost")
+	gModelSlow     = guideline("model.window-slow")
+	gRecruit       = guideline("model.fibre-recruitment")
 	gModelSupply   = guideline("model.synthesis-supply")
 	gModelMuscleFr = guideline("model.run-fraction")
 

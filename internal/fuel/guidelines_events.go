@@ -46,6 +46,7 @@ var eventGuidelines = []Guideline{
 	{"caffeine.pre-event", "caffeine before exercise: 3–6 mg/kg", 3, 6, "mg/kg", SrcMaughan},
 	{"caffeine.pre-event-min", "caffeine about 60 min before the start", 60, 60, "min", SrcMaughan},
 	{"caffeine.no-benefit", "9 mg/kg or more adds no benefit and raises side effects", 9, 9, "mg/kg", SrcMaughan},
+	{"caffeine.long-event", "an event longer than this gets the note on lower caffeine doses later in the race", 4, 4, "h", SrcModel},
 	{"caffeine.repletion", "8 mg/kg caffeine with carbohydrate after exhausting exercise raised the 4-h glycogen resynthesis rate by 66% (38.0 vs 57.7 mmol/kg dw/h)", 8, 1.66, "mg/kg; ratio", SrcPedersen},
 }
 
@@ -71,4 +72,5 @@ var (
 	gCafPreMin   = guideline("caffeine.pre-event-min")
 	gCafNoGain   = guideline("caffeine.no-benefit")
 	gCafRep      = guideline("caffeine.repletion")
+	gCafLong     = guideline("caffeine.long-event")
 )

@@ -22,7 +22,8 @@ func (p *planner) eventDay(date time.Time, rate float64) dayPlan {
 	mass := p.body.MassKg
 
 	fixed := make([]Feed, 0, 3)
-	blockFrom := p.evStart.Add(-90 * time.Minute)
+	clear := time.Duration(gMealClear.Min * float64(time.Minute))
+	blockFrom := p.evStart.Add(-clear)
 	if pm := p.preEventMeal(); pm != nil {
 		if p.plan.PreEventMeal == nil || pm.At.Format("2006-01-02") == d.Date {
 			// A meal on the day before keeps what its day made of it (a
@@ -31,19 +32,19 @@ func (p *planner) eventDay(date time.Time, rate float64) dayPlan {
 			p.plan.PreEventMeal = pm
 		}
 		fixed = append(fixed, Feed{At: pm.At, Label: labelPreEvent, ChoG: pm.ChoG, ProteinG: math.Round(gPreProtein.Min * gProteinMeal.Min * mass)})
-		blockFrom = pm.At.Add(-90 * time.Minute)
+		blockFrom = pm.At.Add(-clear)
 	}
 	de := p.duringEventPlan(rate)
 	p.plan.DuringEvent = de
 	if de.TotalChoG > 0 {
 		fixed = append(fixed, Feed{At: p.evStart, Label: labelDuring, ChoG: de.TotalChoG})
 	}
-	blockTo := p.evEnd.Add(2 * time.Hour)
+	blockTo := p.evEnd.Add(time.Duration(gDemandingMin.Max * float64(time.Hour)))
 	if p.ev.ExpectedDurationMin >= gDuringSmall.Min {
-		rec := p.evEnd.Add(30 * time.Minute)
+		rec := p.evEnd.Add(time.Duration(gDemanding.Max * float64(time.Minute)))
 		fixed = append(fixed, Feed{At: rec, Label: labelRecovery,
 			ChoG: math.Round(gRecoveryFeed.Min * mass), ProteinG: math.Round(gProteinMeal.Min * mass)})
-		blockTo = rec.Add(90 * time.Minute)
+		blockTo = rec.Add(clear)
 	}
 	dp.fixed = fixed
 	dp.blocked = append(dp.blocked, window{blockFrom, blockTo})

@@ -187,7 +187,7 @@ func (p *planner) ordinarySlots(dp *dayPlan, sess []sessionInfo, want int, out *
 			at := clockOn(dp.date, sl.hhmm)
 			for _, s := range sess {
 				end := s.start.Add(time.Duration(s.durMin * float64(time.Minute)))
-				if !at.Before(s.start.Add(-30*time.Minute)) && at.Before(end) {
+				if !at.Before(s.start.Add(-time.Duration(gMealClear.Max*float64(time.Minute)))) && at.Before(end) {
 					at = end
 				}
 			}

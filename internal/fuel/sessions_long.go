@@ -73,8 +73,8 @@ func (p *planner) sessionFuel(dp *dayPlan) {
 		if !pre.Before(dp.date) {
 			sf.PreSessionChoG = math.Round(gSessionPre.Min * mass)
 			dp.fixed = append(dp.fixed, Feed{At: pre, Label: labelPreSession, ChoG: sf.PreSessionChoG,
-				ProteinG: math.Round(0.5 * gProteinMeal.Min * mass)})
-			dp.blocked = append(dp.blocked, window{pre.Add(-90 * time.Minute), end})
+				ProteinG: math.Round(gPreProtein.Min * gProteinMeal.Min * mass)})
+			dp.blocked = append(dp.blocked, window{pre.Add(-time.Duration(gMealClear.Min * float64(time.Minute))), end})
 			sum += sf.PreSessionChoG
 		}
 		sf.ChoGPerH = gDuringFloor(s.durMin)

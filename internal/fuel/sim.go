@@ -33,12 +33,17 @@ import (
 //     morning session.
 //   - Muscle synthesis is the product of three mechanisms (synthRate):
 //     emptiness (slowing as the fourth root of the room left to the 220
-//     mmol/kg capacity), the post-exercise window (the rested rate 35% of
-//     the early one, the rest decaying with a 1.5 h time constant; Ivy
-//     1988) and the glucose supply (x/(x+0.4) of the carbohydrate absorbed
-//     in g/kg/h; more at 1.2 than at 0.8 g/kg/h, Ivy 2004). The constants
-//     are checked against the studies' rates in calibration_test.go.
-//     Muscle that did not exercise fills at a quarter of the rested rate.
+//     mmol/kg capacity), the post-exercise window in two phases and the
+//     glucose supply (x/(x+0.4) of the carbohydrate absorbed in g/kg/h;
+//     more at 1.2 than at 0.8 g/kg/h, Ivy 2004). The window: a rapid phase
+//     (all but 35% of the early rate, decaying with a 1.5 h time constant;
+//     Ivy 1988) over the rested rate. A near-maximal bout recruits the type
+//     II fibres too, about as many again as a submaximal one, and their
+//     raised synthesis adds to the rested rate, fading over a day or two
+//     (time constant 24 h; Jentjens & Jeukendrup 2003: raised insulin
+//     sensitivity lasts many hours). Muscle that did not exercise fills at
+//     a quarter of the rested rate. The constants are checked against the
+//     studies' rates in calibration_test.go.
 //     Supply beyond what muscle and liver can take is oxidised or stored
 //     as fat. Exercise and daily living take working muscle down to the
 //     depleted floor (25 mmol/kg), not below.
@@ -63,7 +68,7 @@ type simBody struct {
 	gutGPerH           float64
 
 	// per-step constants of the last dt (the simulation uses few step sizes)
-	stepDt, gutFrac, boostDecay float64
+	stepDt, gutFrac, boostDecay, slowDecay float64
 }
 
 func newSimBody(b Body) simBody {
@@ -100,12 +105,17 @@ type simState struct {
 	// step by step.
 	sinceExH  float64
 	boostLeft float64
+	// slowLeft is the slow phase: the fibres a near-maximal bout recruited
+	// beyond a submaximal one's (type II as well as type I), relative to
+	// those, times exp(−sinceExH/τ); 0 after submaximal exercise only.
+	slowLeft float64
 }
 
 // since sets the time since the working muscle last exercised.
 func (s simState) since(h float64) simState {
 	s.sinceExH = h
 	s.boostLeft = math.Exp(-h / gModelBoost.Max)
+	s.slowLeft = 0
 	return s
 }
 
@@ -118,12 +128,15 @@ func (b simBody) workingG(s simState) float64 { return GlycogenG(s.Dw, b.working
 // synthRate is the muscle synthesis rate in mmol/kg/h at density d, as
 // the product of three mechanisms: emptiness (glycogen synthase is most
 // active in empty muscle; the rate slows as the fourth root of the room
-// left, to zero at the capacity density), the post-exercise window
-// (boostLeft: 1 just after exercise, decaying; the rested rate is a share
-// of the early one, Ivy 1988) and the supply of glucose (xGPerKgH, the
-// carbohydrate absorbed in g per kg body mass per hour: synthesis rises
-// with intake towards a plateau near 1.2 g/kg/h, Ivy 2004).
-func synthRate(d, boostLeft, xGPerKgH float64) float64 {
+// left, to zero at the capacity density), the post-exercise window and
+// the supply of glucose (xGPerKgH, the carbohydrate absorbed in g per kg
+// body mass per hour: synthesis rises with intake towards a plateau near
+// 1.2 g/kg/h, Ivy 2004). The window has a rapid phase (boostLeft: 1 just
+// after exercise, decaying in hours; the rested rate is a share of the
+// early one, Ivy 1988) and a slow one (slowLeft: the extra fibres a
+// near-maximal bout recruited, their raised synthesis fading over a day or
+// two, Jentjens & Jeukendrup 2003).
+func synthRate(d, boostLeft, slowLeft, xGPerKgH float64) float64 {
 	capD, lowD := gModelCapacity.Min, gDepleted.Min
 	g := (capD - d) / (capD - lowD)
 	if g <= 0 || xGPerKgH <= 0 {
@@ -134,9 +147,21 @@ func synthRate(d, boostLeft, xGPerKgH float64) float64 {
 	}
 	g = math.Sqrt(math.Sqrt(g))
 	rested := gModelBoost.Min
-	w := rested + (1-rested)*boostLeft
+	w := rested*(1+slowLeft) + (1-rested)*boostLeft
 	supply := xGPerKgH / (xGPerKgH + gModelSupply.Min)
 	return gResynthPeak.Min * g * w * supply
+}
+
+// recruitShare is the share of the working muscle's fibres a bout at pct
+// %VO2max recruits, relative to a submaximal bout: submaximal exercise
+// recruits mainly the type I fibres (about half of them), near-maximal
+// exercise all fibre types, twice the fibres (Fairchild 2002: after a
+// near-maximal bout glycogen rose alike in type I, IIa and IIb fibres).
+func recruitShare(pct float64) float64 {
+	if pct >= gRecruit.Min {
+		return 1 / gRecruit.Max
+	}
+	return 1
 }
 
 // coverShare is the share of carbohydrate use that eaten carbohydrate can
@@ -159,6 +184,7 @@ type exercise struct {
 	choUseGPerH   float64
 	cover         float64
 	intakeGPerH   float64 // eaten continuously during the bout (in-event fuelling)
+	recruit       float64 // fibres recruited, relative to a submaximal bout (recruitShare)
 	isEvent       bool
 	runsOutAfterH float64 // set by the simulation: hours into the bout the stores ran out, −1 if never
 }
@@ -170,13 +196,16 @@ type intake struct {
 }
 
 // step advances the state by dt hours. use is the carbohydrate use of
-// exercise in g/h (0 at rest). It returns the grams of carbohydrate the
-// stores could not supply.
-func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short float64) {
+// exercise in g/h (0 at rest); recruit is the share of the working
+// muscle's fibres the exercise recruits, relative to a submaximal bout
+// (recruitShare). It returns the grams of carbohydrate the stores could
+// not supply.
+func (b *simBody) step(s *simState, dt, use, cover, eatGPerH, recruit float64) (short float64) {
 	if dt != b.stepDt {
 		b.stepDt = dt
 		b.gutFrac = 1 - math.Exp(-dt/gModelGut.Max)
 		b.boostDecay = math.Exp(-dt / gModelBoost.Max)
+		b.slowDecay = math.Exp(-dt / gModelSlow.Max)
 	}
 	s.GutG += eatGPerH * dt
 	// The gut delivers first-order (time constant gModelGut.Max), at most
@@ -215,24 +244,27 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 		}
 		s.sinceExH = 0
 		s.boostLeft = 1
+		s.slowLeft = max(s.slowLeft, recruit-1)
 		// Left-over absorbed carbohydrate tops up the liver.
 		s.LiverG = min(b.liverCapG, s.LiverG+a)
 		return short
 	}
 	s.sinceExH += dt
 	s.boostLeft *= b.boostDecay
+	s.slowLeft *= b.slowDecay
 	// The supply that drives synthesis: all carbohydrate absorbed, per kg
 	// body mass per hour.
 	x := a / dt / b.massKg
 	// First pass: the liver takes its share of what is absorbed. Then
 	// resting and daily-living use, covered by absorbed carbohydrate and
-	// (up to the fasting drain) by the liver; then muscle synthesis
-	// (rate-limited, shared in proportion to demand); the liver takes
-	// what is left.
+	// (up to the fasting drain) by the liver; then muscle synthesis; the
+	// liver takes what is left.
 	if toLiver := min(gLiverShare.Min*a, b.liverCapG-s.LiverG); toLiver > 0 {
 		s.LiverG += toLiver
 		a -= toLiver
 	}
+	// Resting and daily-living use: absorbed carbohydrate first, then the
+	// liver (up to its fasting drain), then muscle and fat.
 	totalKg := b.workingKg + b.otherKg
 	mean := gModelTypical.Min
 	if totalKg > 0 {
@@ -256,9 +288,11 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH float64) (short flo
 	if a <= 0 {
 		return 0
 	}
+	// Muscle synthesis (rate-limited, shared in proportion to demand);
+	// the liver takes what is left.
 	k := gGlucosyl.Min * dt
-	dw := synthRate(s.Dw, s.boostLeft, x) * b.workingKg * k
-	do := gOtherRate.Min * synthRate(s.Do, 0, x) * b.otherKg * k
+	dw := synthRate(s.Dw, s.boostLeft, s.slowLeft, x) * b.workingKg * k
+	do := gOtherRate.Min * synthRate(s.Do, 0, 0, x) * b.otherKg * k
 	if need := dw + do; need > a {
 		f := a / need
 		dw, do = dw*f, do*f
@@ -315,14 +349,14 @@ func (b *simBody) simulate(s simState, from, to int64, ex []exercise, in []intak
 		for ei < len(ex) && ex[ei].end <= t {
 			ei++
 		}
-		use, cover, eat := 0.0, 0.0, 0.0
+		use, cover, eat, rec := 0.0, 0.0, 0.0, 0.0
 		if ei < len(ex) && ex[ei].start <= t {
-			use, cover, eat = ex[ei].choUseGPerH, ex[ei].cover, ex[ei].intakeGPerH
+			use, cover, eat, rec = ex[ei].choUseGPerH, ex[ei].cover, ex[ei].intakeGPerH, ex[ei].recruit
 		}
 		if curve != nil && t%sampleS == 0 {
 			*curve = append(*curve, b.point(s, t, loc))
 		}
-		if short := b.step(&s, dt, use, cover, eat); short > 0 && ex[ei].runsOutAfterH < 0 {
+		if short := b.step(&s, dt, use, cover, eat, rec); short > 0 && ex[ei].runsOutAfterH < 0 {
 			ex[ei].runsOutAfterH = float64(t-ex[ei].start) / 3600
 		}
 	}
@@ -345,7 +379,7 @@ func (b *simBody) race(s simState, durH, useGPerH, cover, eatGPerH float64) (run
 	runsOutH = -1
 	steps := int(math.Ceil(durH / dt))
 	for i := 0; i < steps; i++ {
-		if short := b.step(&s, dt, useGPerH, cover, eatGPerH); short > 0 && runsOutH < 0 {
+		if short := b.step(&s, dt, useGPerH, cover, eatGPerH, 1); short > 0 && runsOutH < 0 {
 			runsOutH = float64(i) * dt
 		}
 	}

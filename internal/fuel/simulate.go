@@ -6,7 +6,8 @@ import (
 )
 
 // startState is the assumed state at midnight before the first day of a
-// simulation: typical muscle glycogen density, and the liver and gut as a
+// simulation: typical muscle glycogen density, the working muscle last
+// exercised a day before (model.start-since-exercise), and the liver and gut as a
 // usual day of a trained athlete leaves them (the moderate band's lower
 // end, 5 g/kg, over the default eating occasions): the fed liver of the
 // evening (100–120 g at 70 kg, common practice) a few hours into the
@@ -16,7 +17,7 @@ func (p *planner) startState() simState {
 	if p.haveStart {
 		return p.start
 	}
-	s := simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: p.sb.liverCapG}.since(24)
+	s := simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: p.sb.liverCapG}.since(gStartSince.Min)
 	sched := scheduleFor(p.occasions)
 	var w, g [16]float64
 	var in [16]intake
@@ -30,7 +31,7 @@ func (p *planner) startState() simState {
 	}
 	s = p.sb.simulate(s, 0, 24*3600, nil, in[:ns], nil, 3600, time.UTC)
 	s.Dw, s.Do = gModelTypical.Min, gModelTypical.Min
-	p.start, p.haveStart = s.since(24), true
+	p.start, p.haveStart = s.since(gStartSince.Min), true
 	return p.start
 }
 
@@ -44,7 +45,8 @@ func (p *planner) exercises(from, to int64) []exercise {
 			continue
 		}
 		use := sessionKcalPerH(p.body, s.modality, s.pct) * ChoShare(s.pct) / gAtwaterCho.Min
-		out = append(out, exercise{start: st, end: en, choUseGPerH: use, cover: coverShare(s.pct), intakeGPerH: p.sessionRate(s)})
+		out = append(out, exercise{start: st, end: en, choUseGPerH: use, cover: coverShare(s.pct), intakeGPerH: p.sessionRate(s),
+			recruit: recruitShare(s.pct)})
 	}
 	return out
 }
