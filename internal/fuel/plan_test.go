@@ -110,7 +110,7 @@ func checkPlanInvariants(t *testing.T, req Request, p Plan) {
 	}
 	levels := map[string]bool{LevelOK: true, LevelNote: true, LevelCaution: true, LevelOutside: true}
 	for _, f := range p.Findings {
-		if f.Code == "" || f.Message == "" || !levels[f.Level] || !allowedSources[f.Source] {
+		if f.Code == "" || f.Message == "" || !levels[f.Level] || !isTracedSource(f.Source) {
 			t.Errorf("incomplete finding %+v", f)
 		}
 		if strings.Contains(f.Message, "?") || strings.Contains(f.Message, "%") && !strings.Contains(f.Message, "% ") && !strings.Contains(f.Message, "%)") && !strings.Contains(f.Message, "%.") && !strings.Contains(f.Message, "%,") {
