@@ -131,6 +131,31 @@ var calibrations = []calibration{
 			return restorationStudy(t)
 		},
 	},
+	{
+		study: "Bergström; Sherman",
+		protocol: "race plan, no training logged: usual intake the day before, the plan's pre-event meal (3 g/kg, 3 h before); " +
+			"working muscle at the start of a marathon (70 kg man)",
+		published: "typical trained 80–120 mmol/kg ww (Bergström 1967; Sherman 1981, from memory)",
+		lo:        80, hi: 120,
+		gap: "the working muscle keeps the rested post-exercise synthesis rate however long ago it last exercised, while " +
+			"daily living draws on all muscle alike: from 100 it gains 18 on the usual day before and 11 from the pre-event " +
+			"meal; on 5 g/kg a day with no training it climbs to about 215 in 14 days while the other muscle falls to 72. " +
+			"Letting that rate fade over a day or two gives 110, but then a two-day load after a taper with no training " +
+			"logged stays near 120 instead of the loaded band (Bussau 2002, from memory, loads at rest), so it is not in the model",
+		ours: func(t *testing.T) float64 {
+			return fedStartStudy(t)
+		},
+	},
+}
+
+// fedStartStudy is the marathon-wall request of body_test.go: the working
+// muscle's density at the start line.
+func fedStartStudy(t *testing.T) float64 {
+	t.Helper()
+	start := time.Date(2027, 4, 18, 9, 0, 0, 0, time.UTC)
+	p := mustCompute(t, Request{Kind: KindRace, Athlete: Athlete{Sex: "male", BodyMassKg: 70, HeightCm: ptr(178.0)},
+		Event: &Event{StartsAt: start, Modality: "run", DistanceKm: ptr(42.195), ExpectedDurationMin: 210, IntensityPctVO2max: ptr(75.0)}})
+	return p.Glycogen.WorkingMuscleMmolPerKgStart
 }
 
 func init() {
