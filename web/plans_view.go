@@ -78,7 +78,10 @@ type FeedView struct {
 	Suggestion        string
 	// Key names the feed's stored food plan (menu.FeedKey), so that a
 	// test can read one feed's row on every surface.
-	Key      string
+	Key string
+	// FoodURL opens the page where the dietitian decides the feed's food
+	// (drafts only).
+	FoodURL  string
 	Findings []FindingView
 }
 
@@ -111,7 +114,9 @@ type Fact struct {
 	Value      string
 	Hint       string
 	Overridden bool
-	Findings   []FindingView
+	// FoodURL: the link to decide the food of the feed the box is about.
+	FoodURL  string
+	Findings []FindingView
 }
 
 // VersionView is one row of the version history.

@@ -261,6 +261,22 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 		t.Fatalf("the new draft shows no edit form (%s): %v", pageURL(ctx), err)
 	}
 	axeCheck(t, ctx, src, "plan draft")
+
+	// A feed's food on the draft: the page, a line refused (its amount
+	// left empty), then a choice saved that is over the feed's grams, whose
+	// check shows beside the feed on the draft.
+	draftURL := pageURL(ctx)
+	foodPage := firstHref(t, ctx, `a.feed-food`)
+	axeVisit(t, ctx, src, "feed food", foodPage)
+	submitUnchecked(t, ctx, "feed food with errors", "#feed-food")
+	axeCheck(t, ctx, src, "feed food with errors")
+	if err := chromedp.Do(ctx, chromedp.Navigate(foodPage), chromedp.WaitVisible(chromedp.ID("feed-food")),
+		chromedp.SendKeys(chromedp.ID("f-free_0"), "rice pudding"), chromedp.SendKeys(chromedp.ID("f-freecho_0"), "400"),
+		chromedp.Click(chromedp.CSS(`button[value="save"]`)), chromedp.WaitVisible(chromedp.ID("plan-edit"))); err != nil {
+		t.Fatalf("save a food choice (%s): %v", draftURL, err)
+	}
+	axeCheck(t, ctx, src, "plan draft with a food choice")
+	axeVisit(t, ctx, src, "feed food with a saved choice", foodPage)
 }
 
 // TestBrowserAxePhoneRaceDays checks the phone page's race days at phone

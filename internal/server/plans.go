@@ -148,6 +148,10 @@ func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, 
 		return
 	}
 	pv := s.planView(c, p, v, versions, stored)
+	if err := s.placeFoodChoices(r.Context(), &pv, c, p, v); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
 	pv.SuggestionNote = opts.Note()
 	pv.Form = f
 	pv.Notice = notice

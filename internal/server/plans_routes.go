@@ -6,5 +6,6 @@ import "github.com/go-chi/chi/v5"
 func (s *Server) mountPlanRoutes(r chi.Router) {
 	s.mountFoodRoutes(r)
 	s.mountPlanPages(r)
+	s.mountFeedFoodRoutes(r)
 	s.mountAPI(r)
 }

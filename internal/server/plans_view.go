@@ -160,6 +160,9 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 			Findings: take("pre_event_meal")}
 		if sg := suggestions[store.FeedKey("pre_event", menu.FeedDate(plan, m.At), 0)]; sg != "" {
 			pv.PreEvent.Hint = "For example: " + sg
+			if menu.IsChoice(sg) {
+				pv.PreEvent.Hint = sg
+			}
 		}
 	}
 	if d := plan.DuringEvent; d != nil {

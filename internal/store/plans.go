@@ -303,7 +303,8 @@ func (s *Store) NewVersion(ctx context.Context, actor Actor, planID int64, from 
 
 // NewVersionWith is NewVersion with the new draft's food suggestions made
 // afresh (by FeedKey, from the current foods list) instead of copied; nil
-// copies them. An existing draft is returned unchanged.
+// copies them. The dietitian's food choices are copied either way. An
+// existing draft is returned unchanged.
 func (s *Store) NewVersionWith(ctx context.Context, actor Actor, planID int64, from int64, fresh map[string]string) (PlanVersion, error) {
 	var v PlanVersion
 	err := s.inTx(ctx, func(tx pgx.Tx) error {
@@ -329,7 +330,7 @@ func (s *Store) NewVersionWith(ctx context.Context, actor Actor, planID int64, f
 		}
 		sugg := fresh
 		if sugg == nil {
-			if sugg, err = suggestionsOf(ctx, tx, src.ID); err != nil {
+			if sugg, err = computedSuggestionsOf(ctx, tx, src.ID); err != nil {
 				return err
 			}
 		}
@@ -338,35 +339,17 @@ func (s *Store) NewVersionWith(ctx context.Context, actor Actor, planID int64, f
 		if err != nil {
 			return err
 		}
+		// The dietitian's food choices go with the content: a new version
+		// keeps them whatever the fresh suggestions say.
+		if err := copyFeedChoices(ctx, tx, src.ID, id); err != nil {
+			return err
+		}
 		if v, err = scanVersion(tx.QueryRow(ctx, `SELECT `+versionCols+versionFrom+`WHERE v.id = $1`, id)); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "revise", "plan", planID, map[string]any{"version": next, "from_version": src.Version})
 	})
 	return v, err
-}
-
-// querier is a pool or a transaction: what a read needs.
-type querier interface {
-	Query(ctx context.Context, sql string, args ...any) (pgx.Rows, error)
-}
-
-func suggestionsOf(ctx context.Context, q querier, versionID int64) (map[string]string, error) {
-	rows, err := q.Query(ctx, `SELECT kind, on_date::text, feed_index, suggestion FROM plan_feeds WHERE plan_version_id = $1 AND suggestion <> ''`, versionID)
-	if err != nil {
-		return nil, err
-	}
-	defer rows.Close()
-	out := map[string]string{}
-	for rows.Next() {
-		var kind, date, text string
-		var i int
-		if err := rows.Scan(&kind, &date, &i, &text); err != nil {
-			return nil, err
-		}
-		out[FeedKey(kind, date, i)] = text
-	}
-	return out, rows.Err()
 }
 
 // PlanByID loads a plan of a client.
