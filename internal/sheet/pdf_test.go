@@ -92,7 +92,8 @@ func TestPaperSizes(t *testing.T) {
 }
 
 func TestSheetOfEachExample(t *testing.T) {
-	for _, name := range []string{"marathon-loading.json", "cyclist-5h-race.json", "rower-two-sessions.json", "runner-10k-race.json", "training-week.json"} {
+	for _, name := range []string{"marathon-loading.json", "cyclist-5h-race.json", "rower-two-sessions.json", "runner-10k-race.json", "training-week.json",
+		"ironman-race.json", "stage-race-4-day.json", "ultra-48h-race.json", "ultra-48h-loading.json", "hundred-mile-race.json"} {
 		t.Run(name, func(t *testing.T) {
 			req, plan := example(t, name)
 			for _, paper := range []Paper{A4, Letter} {
