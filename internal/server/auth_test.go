@@ -67,8 +67,22 @@ func TestSignIn(t *testing.T) {
 		res.mustContain(t, "Email is required.", "Password is required.")
 	})
 	t.Run("next cannot leave the site", func(t *testing.T) {
-		a.browser().post("/signin", url.Values{"email": {u.Email}, "password": {testPassword}, "next": {"//evil.example/x"}}).
-			mustRedirect(t, "/clients")
+		res := a.browser().post("/signin", url.Values{"email": {u.Email}, "password": {testPassword}, "next": {"//evil.example/x"}})
+		if res.status != http.StatusSeeOther || res.location != "/" {
+			t.Fatalf("sign-in with a foreign next: %d to %q, want 303 to the overview /", res.status, res.location)
+		}
+	})
+	t.Run("without next the overview comes first", func(t *testing.T) {
+		b := a.browser()
+		res := b.post("/signin", url.Values{"email": {u.Email}, "password": {testPassword}})
+		if res.status != http.StatusSeeOther || res.location != "/" {
+			t.Fatalf("sign-in: %d to %q, want 303 to /", res.status, res.location)
+		}
+		page := b.get("/")
+		if page.status != http.StatusOK {
+			t.Fatalf("overview: %d", page.status)
+		}
+		page.mustContain(t, "<h1>Overview</h1>", `href="/" aria-current="page"`, "Events in the next 21 days")
 	})
 }
 
@@ -309,5 +323,7 @@ func TestChangeOwnPassword(t *testing.T) {
 	fresh := a.browser()
 	fresh.post("/signin", url.Values{"email": {u.Email}, "password": {testPassword}})
 	fresh.get("/clients").mustRedirect(t, "/signin")
-	fresh.post("/signin", url.Values{"email": {u.Email}, "password": {"another long password"}}).mustRedirect(t, "/clients")
+	if res := fresh.post("/signin", url.Values{"email": {u.Email}, "password": {"another long password"}}); res.status != http.StatusSeeOther || res.location != "/" {
+		t.Fatalf("sign-in with the new password: %d to %q", res.status, res.location)
+	}
 }

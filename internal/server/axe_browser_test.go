@@ -192,6 +192,7 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 	}
 
 	for _, p := range []struct{ name, path string }{
+		{"overview", "/"},
 		{"clients", "/clients"},
 		{"new client", "/clients/new"},
 		{"foods", "/foods"},

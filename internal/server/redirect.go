@@ -7,7 +7,7 @@ import (
 )
 
 // defaultNext is where sign-in leads when no safe target was given.
-const defaultNext = "/clients"
+const defaultNext = "/"
 
 // safeNext keeps a post-sign-in redirect on this site: only a path on this
 // host, never something a browser could read as another host. Browsers

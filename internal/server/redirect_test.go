@@ -59,7 +59,7 @@ func TestSafeNext(t *testing.T) {
 	}
 }
 
-// Signing in with a crafted next lands on the client list, both from the
+// Signing in with a crafted next lands on the overview, both from the
 // form and when already signed in.
 func TestSignInNextStaysOnSite(t *testing.T) {
 	a := newApp(t)

@@ -36,7 +36,7 @@ func (s *Server) routes() http.Handler {
 
 		r.Group(func(r chi.Router) {
 			r.Use(s.requireUser)
-			r.Get("/", func(w http.ResponseWriter, r *http.Request) { http.Redirect(w, r, "/clients", http.StatusFound) })
+			r.Get("/", s.overview)
 			s.mountStaffRoutes(r)
 			s.mountPlanRoutes(r)
 			s.mountSheetRoutes(r)

@@ -24,7 +24,9 @@ func (b *browser) sessionCookie() string {
 func (a *app) signInAgain(u store.User, password string) *browser {
 	a.t.Helper()
 	b := a.browser()
-	b.post("/signin", url.Values{"email": {u.Email}, "password": {password}}).mustRedirect(a.t, "/clients")
+	if res := b.post("/signin", url.Values{"email": {u.Email}, "password": {password}}); res.status != http.StatusSeeOther || res.location != "/" {
+		a.t.Fatalf("sign-in: %d to %q, want 303 to the overview", res.status, res.location)
+	}
 	return b
 }
 

@@ -37,6 +37,12 @@ func (s *Server) renderTeam(w http.ResponseWriter, r *http.Request, status int, 
 	if practice.Values == nil {
 		practice = forms.New()
 		practice.Values.Set("practice_name", s.PracticeName(r))
+		zone, err := s.Store.Setting(r.Context(), store.SettingPracticeTimeZone, store.DefaultPracticeTimeZone)
+		if err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
+		practice.Values.Set("practice_time_zone", zone)
 	}
 	recent, err := s.Store.RecentAudit(r.Context(), 20)
 	if err != nil {
@@ -208,6 +214,10 @@ func (s *Server) teamPractice(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	s.Flash(r, "Practice name saved.")
+	if err := s.Store.SetSetting(r.Context(), Actor(r), store.SettingPracticeTimeZone, in.TimeZone); err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.Flash(r, "Practice details saved.")
 	Redirect(w, r, "/team")
 }

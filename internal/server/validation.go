@@ -355,4 +355,5 @@ type roleForm struct {
 
 type practiceForm struct {
 	PracticeName string `form:"practice_name" label:"Practice name" validate:"required,max=120"`
+	TimeZone     string `form:"practice_time_zone" label:"Time zone" validate:"required,iana_zone"`
 }
