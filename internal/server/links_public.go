@@ -231,6 +231,7 @@ func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
 			t.LowFibre = false
 		}
 	}
+	blockFood := map[int64]web.ClientFeed{}
 	for i, f := range d.Feeds {
 		fv := web.ClientFeed{Time: f.At.In(p.loc).Format("15:04"), Label: clientFeedLabel(f.Label), ChoG: web.Num(f.ChoG, 0),
 			Suggestion: p.Suggestions[menu.FeedKey("day", d.Date, i)], Key: menu.FeedKey("day", d.Date, i),
@@ -241,12 +242,18 @@ func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
 		if f.ProteinG > 0 {
 			fv.ProteinG = web.Num(f.ProteinG, 0)
 		}
+		if f.Label == "during event" && blockStarts(p, f.At) {
+			// The block's line below carries its food idea: listing the
+			// block again as a feed would show the athlete each block twice.
+			blockFood[f.At.Unix()] = fv
+			continue
+		}
 		if l, ok := raceFeedLabel(p, f); ok && f.Label == "during event" {
 			fv.Label = l
 		}
 		t.Feeds = append(t.Feeds, fv)
 	}
-	t.Race = raceToday(p, d)
+	t.Race = raceToday(p, d, blockFood)
 	ev := p.Version.Request.Event
 	// A stage race's days show their stages instead (raceToday).
 	if ev == nil || ev.StartsAt.In(p.loc).Format(time.DateOnly) != d.Date || len(plan.Stages) > 0 {

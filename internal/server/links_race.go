@@ -13,8 +13,10 @@ import (
 // today, the legs of today's multi-sport event and the blocks of hours of
 // an event over a day. Every figure is the stored plan's, only formatted.
 
-// raceToday is the race part of day d, or nil when the day has none.
-func raceToday(p linkPlan, d fuel.Day) *web.ClientRace {
+// raceToday is the race part of day d, or nil when the day has none;
+// blockFood is the day's in-event feed of each block by its start (Unix
+// seconds), whose food idea the block's line shows.
+func raceToday(p linkPlan, d fuel.Day, blockFood map[int64]web.ClientFeed) *web.ClientRace {
 	plan := p.Version.Result
 	on := func(t time.Time) bool { return t.In(p.loc).Format(time.DateOnly) == d.Date }
 	r := &web.ClientRace{Name: "Your race"}
@@ -41,8 +43,12 @@ func raceToday(p linkPlan, d fuel.Day) *web.ClientRace {
 		}
 		for _, b := range de.Blocks {
 			if on(b.From) {
-				r.Blocks = append(r.Blocks, web.ClientBlock{From: b.From.In(p.loc).Format("Mon 15:04"), To: b.To.In(p.loc).Format("Mon 15:04"),
-					GPerH: web.Num(b.ChoGPerH, 0), ChoG: web.Num(b.ChoG, 0), Night: b.Night})
+				cb := web.ClientBlock{From: b.From.In(p.loc).Format("Mon 15:04"), To: b.To.In(p.loc).Format("Mon 15:04"),
+					GPerH: web.Num(b.ChoGPerH, 0), ChoG: web.Num(b.ChoG, 0), Night: b.Night}
+				if f, ok := blockFood[b.From.Unix()]; ok {
+					cb.Suggestion, cb.Key = f.Suggestion, f.Key
+				}
+				r.Blocks = append(r.Blocks, cb)
 			}
 		}
 		r.InRace = len(r.Blocks) > 0 && ev != nil && !on(ev.StartsAt)
@@ -82,6 +88,20 @@ func clientStage(p linkPlan, i int, st fuel.StagePlan, more bool) web.ClientStag
 		}
 	}
 	return s
+}
+
+// blockStarts reports whether an hour block of the plan's event starts at t.
+func blockStarts(p linkPlan, t time.Time) bool {
+	de := p.Version.Result.DuringEvent
+	if de == nil || len(p.Version.Result.Stages) > 0 {
+		return false
+	}
+	for _, b := range de.Blocks {
+		if b.From.Equal(t) {
+			return true
+		}
+	}
+	return false
 }
 
 // raceClock writes minutes of race time as h:mm.

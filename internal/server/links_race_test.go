@@ -13,6 +13,7 @@ import (
 	"time"
 
 	"larder/internal/fuel"
+	"larder/internal/menu"
 	"larder/internal/store"
 	"larder/internal/testdb"
 	"larder/web"
@@ -63,7 +64,12 @@ func newRaceLinks(t *testing.T) raceLinks {
 		if err := a.st.AddEvent(context.Background(), store.System, &ev); err != nil {
 			t.Fatal(err)
 		}
-		content := store.PlanContent{Request: req, Result: plan, BodyMassKg: req.Athlete.BodyMassKg}
+		foods, err := a.st.ListFoods(context.Background(), false)
+		if err != nil {
+			t.Fatal(err)
+		}
+		content := store.PlanContent{Request: req, Result: plan, BodyMassKg: req.Athlete.BodyMassKg,
+			Suggestions: menu.PlanSuggestions(plan, MenuFoods(foods))}
 		p := store.Plan{ClientID: c.ID, EventID: &ev.ID, Kind: fuel.KindRace, Title: "Race plan"}
 		v, err := a.st.CreatePlan(context.Background(), store.System, &p, content)
 		if err != nil {
@@ -200,6 +206,56 @@ func TestClientLinkInRaceDay(t *testing.T) {
 	}
 	if got := strings.Count(page, `class="night"`); got != nights {
 		t.Errorf("%d night blocks marked, want %d", got, nights)
+	}
+	checkBlocksOnce(t, r, file, "2027-08-21", page)
+	r.at(time.Date(2027, 8, 20, 7, 0, 0, 0, loc))
+	checkBlocksOnce(t, r, file, "2027-08-20", r.phonePage(t, file))
+}
+
+// checkBlocksOnce checks that each block of hours starting on day shows
+// once, in the block list with its stored food idea, and not again as a
+// feed in the list of feeds.
+func checkBlocksOnce(t *testing.T, r raceLinks, file, day, page string) {
+	t.Helper()
+	plan := r.plans[file]
+	loc := planZone(plan.TimeZone)
+	feeds := section(page, `id="feeds"`)
+	for _, d := range plan.Days {
+		if d.Date != day {
+			continue
+		}
+		for i, f := range d.Feeds {
+			if f.Label != "during event" {
+				continue
+			}
+			key := menu.FeedKey("day", d.Date, i)
+			if strings.Contains(feeds, `data-feed="`+key+`"`) {
+				t.Errorf("block at %s listed again among the feeds", f.At.In(loc).Format("15:04"))
+			}
+			if strings.Count(page, `data-feed="`+key+`"`) != 1 {
+				t.Errorf("block at %s: its feed shown %d times, want once", f.At.In(loc).Format("15:04"), strings.Count(page, `data-feed="`+key+`"`))
+			}
+		}
+	}
+	if strings.Contains(feeds, "During the race, ") {
+		t.Errorf("a block is still named as a feed (\"During the race, … (in all)\")")
+	}
+	blocks := section(page, `id="blocks-list"`)
+	for _, b := range plan.DuringEvent.Blocks {
+		if b.From.In(loc).Format(time.DateOnly) != day {
+			continue
+		}
+		line := b.From.In(loc).Format("Mon 15:04") + " to " + b.To.In(loc).Format("Mon 15:04")
+		if n := strings.Count(page, line); n != 1 {
+			t.Errorf("block %s shown %d times, want once", line, n)
+		}
+		li := blocks[strings.Index(blocks, line):]
+		if j := strings.Index(li, "</li>"); j >= 0 {
+			li = li[:j]
+		}
+		if !strings.Contains(li, "For example: ") {
+			t.Errorf("block %s has no food idea:\n%s", line, li)
+		}
 	}
 }
 
