@@ -365,9 +365,12 @@ func (p *planner) stageSimulation(first, loadStart time.Time, rates []float64, s
 	p.plan.Glycogen = g
 	p.startDensity = s0.Dw
 	if loading {
-		gained := (p.sb.muscleG(s0) + s0.LiverG) - (p.sb.muscleG(sLoad) + sLoad.LiverG)
-		kg := math.Round(math.Max(0, gained*(1+gWater.Min)/1000)*10) / 10
-		p.plan.ExpectedMassGainKg = &kg
+		// The gain as a range, like a one-day event's (simulate.go): the
+		// glycogen the load adds with 3–4 g of water per g.
+		p.massGainG = math.Max(0, (p.sb.muscleG(s0)+s0.LiverG)-(p.sb.muscleG(sLoad)+sLoad.LiverG))
+		lo := math.Round(p.massGainG*(1+gWater.Min)/100) / 10
+		hi := math.Round(p.massGainG*(1+gWater.Max)/100) / 10
+		p.plan.ExpectedMassGainKg, p.plan.ExpectedMassGainKgMax = &lo, &hi
 	}
 }
 
