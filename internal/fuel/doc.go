@@ -60,12 +60,14 @@
 //     with the stores (met by what is absorbed, else by liver, muscle and
 //     fat, so the intake sets where stores settle; the fasting liver loses
 //     a third to a half overnight and slows near a floor, gluconeogenesis
-//     sparing it in exercise), muscle synthesis from emptiness, the
-//     post-exercise window (a rapid phase of hours, and after a
-//     near-maximal bout that recruits every fibre type a slow one of a day
-//     or two) and the glucose supply, slowing towards 220
-//     mmol/kg and calibrated against published refuelling studies
-//     (calibration_test.go), a depleted floor of 25 mmol/kg, exercise use from energy × carbohydrate share with intake
+//     sparing it in exercise), muscle synthesis in the working muscle's
+//     post-exercise window (emptiness, a rapid phase of hours and a slow
+//     one of a day or two, larger after a near-maximal bout that recruits
+//     every fibre type, and the glucose supply, slowing towards 220
+//     mmol/kg) handing over to resting synthesis in all muscle alike
+//     (driven by the supply, slowing to nothing at the level recent intake
+//     over resting use sets), calibrated against published refuelling,
+//     loading and steady-diet figures (calibration_test.go), a depleted floor of 25 mmol/kg, exercise use from energy × carbohydrate share with intake
 //     covering at most about 35% at hard efforts; the stores run out when
 //     working muscle and liver are both (nearly) empty. A simulation starts
 //     at midnight from typical muscle glycogen and the fed liver a usual

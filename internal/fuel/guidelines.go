@@ -137,13 +137,14 @@ var coreGuidelines = []Guideline{
 	{"model.liver-per-kg", "liver glycogen capacity per kg body mass (gives 112 g at 70 kg, inside 100–120 g)", 1.6, 1.6, "g/kg", SrcModel},
 	{"model.gut-absorption", "the gut delivers eaten carbohydrate first-order with a 1.5 h time constant (86% of a meal within 3 h, 93% within 4 h: the 1–4 h pre-event meal timing), at most at the exogenous oxidation ceiling of multiple transportable carbohydrate, 1.75 g/min (Jeukendrup 2014; mixed meals hold glucose and fructose sources)", 105, 1.5, "g/h; h", SrcModel},
 	{"model.window-boost", "rapid phase of the post-exercise window of synthesis: the rested rate is this share (Min) of the rate just after exercise, the rest decaying with a time constant (Max), so that feeding 2 h late lowers synthesis over the first 2 h of feeding by about 40% (ratio 0.62; Ivy 1988 measured roughly a half)", 0.35, 1.5, "share; h", SrcModel},
-	{"model.window-slow", "slow phase of the post-exercise window after a near-maximal bout: the synthesis of the extra fibres it recruited fades with this time constant (Jentjens & Jeukendrup 2003, from memory: raised insulin sensitivity after exercise lasts many hours, up to about 48 h)", 24, 24, "h", SrcModel},
+	{"model.window-slow", "slow phase of the post-exercise window: the raised synthesis of the muscle that worked (and, after a near-maximal bout, of the extra fibres it recruited) fades with this time constant to the resting synthesis of all muscle (Jentjens & Jeukendrup 2003, from memory: raised insulin sensitivity after exercise lasts many hours, up to about 48 h)", 24, 24, "h", SrcModel},
 	{"model.fibre-recruitment", "exercise at or above Min %VO2max (near-maximal) recruits all fibre types of the working muscle; below it mainly the type I fibres, about this share (Max) of the fibres (vastus lateralis about half type I, from memory), so after a near-maximal bout 1/Max times the fibres synthesise at the rested rate, the extra fading in the slow phase (Fairchild 2002: glycogen rose alike in type I, IIa and IIb fibres after a near-maximal bout)", 85, 0.5, "% VO2max; share of fibres", SrcModel},
 	{"model.synthesis-supply", "synthesis rises with the carbohydrate absorbed as x/(x+K), K in g per kg body mass per h: more at 1.2 than at 0.8 g/kg/h, levelling off above (Ivy 2004 review: about 1.2 g/kg/h maximises)", 0.4, 0.4, "g/kg/h", SrcModel},
 	{"model.working.swim", "working muscle share of skeletal muscle, swimming", 0.70, 0.70, "share", SrcModel},
 	{"model.working.row", "working muscle share of skeletal muscle, rowing and cross-country skiing", 0.85, 0.85, "share", SrcModel},
 	{"model.working.triathlon", "working muscle share of skeletal muscle, triathlon", 0.75, 0.75, "share", SrcModel},
-	{"model.other-muscle-rate", "synthesis in muscle that did not exercise, as a share of the working muscle's rested rate (supercompensation is local to exercised muscle)", 0.25, 0.25, "share", SrcModel},
+	{"model.rest-synthesis", "resting synthesis, in all muscle whether it worked or not: at most this share (Min) of the rate just after exercise, slowing as the power (Max) of the room left below the level recent intake sets (model.rest-level); one day of about 10 g/kg at rest loads muscle (Bussau 2002, from memory)", 0.5, 1, "share; exponent", SrcModel},
+	{"model.rest-level", "resting muscle glycogen settles at the typical density times recent carbohydrate intake over resting use (model.rest-cho-ox): no carbohydrate leaves it depleted, a mixed diet typical, a high one loaded (Bergström 1967, from memory); intake averaged with this time constant (Max)", 1, 24, "ratio; h", SrcModel},
 	{"liver.overnight-fall", "a 10–12 h overnight fast typically lowers liver glycogen by roughly a third to a half (the model's fasting liver gives up half its capacity over the 8 h after the evening meal is absorbed, gluconeogenesis supplying the rest of its glucose output)", 1.0 / 3, 0.5, "share of fed liver glycogen", SrcCommon},
 	{"liver.overnight-hours", "the overnight fast of that fall", 10, 12, "h", SrcCommon},
 	{"model.liver-floor", "below a fifth of its capacity the liver gives up glycogen ever more slowly, in proportion to what is left, so it does not run dry in ordinary exercise", 0.2, 0.2, "share of liver capacity", SrcModel},
@@ -319,7 +320,8 @@ var (
 	gGluconeogenesis = guideline("model.gluconeogenesis")
 	gFatUpper        = guideline("fat.upper")
 	gFatUpperEvent   = guideline("fat.upper-event")
-	gOtherRate       = guideline("model.other-muscle-rate")
+	gRestSynth       = guideline("model.rest-synthesis")
+	gRestLevel       = guideline("model.rest-level")
 	gResynthPeak     = guideline("model.resynthesis-peak")
 	gCoverEasy       = guideline("model.cover-easy")
 	gLongFloor       = guideline("during.long-floor")

@@ -31,19 +31,27 @@ import (
 //     gluconeogenesis supplies up to 0.1 g/kg/h of its output (model
 //     assumptions): liver glycogen falls but does not run dry in a fasted
 //     morning session.
-//   - Muscle synthesis is the product of three mechanisms (synthRate):
-//     emptiness (slowing as the fourth root of the room left to the 220
-//     mmol/kg capacity), the post-exercise window in two phases and the
-//     glucose supply (x/(x+0.4) of the carbohydrate absorbed in g/kg/h;
-//     more at 1.2 than at 0.8 g/kg/h, Ivy 2004). The window: a rapid phase
-//     (all but 35% of the early rate, decaying with a 1.5 h time constant;
-//     Ivy 1988) over the rested rate. A near-maximal bout recruits the type
-//     II fibres too, about as many again as a submaximal one, and their
-//     raised synthesis adds to the rested rate, fading over a day or two
-//     (time constant 24 h; Jentjens & Jeukendrup 2003: raised insulin
-//     sensitivity lasts many hours). Muscle that did not exercise fills at
-//     a quarter of the rested rate. The constants are checked against the
-//     studies' rates in calibration_test.go.
+//   - Muscle synthesis has two parts. The post-exercise window of the
+//     working muscle (synthRate) is the product of emptiness (slowing as
+//     the fourth root of the room left to the 220 mmol/kg capacity), the
+//     window and the glucose supply (x/(x+0.4) of the carbohydrate
+//     absorbed in g/kg/h; more at 1.2 than at 0.8 g/kg/h, Ivy 2004). The
+//     window has a rapid phase (all but 35% of the early rate, decaying
+//     with a 1.5 h time constant; Ivy 1988) over a slow one that fades
+//     over a day or two (time constant 24 h; Jentjens & Jeukendrup 2003:
+//     raised insulin sensitivity lasts many hours). A near-maximal bout
+//     recruits the type II fibres too, about as many again as a submaximal
+//     one, and their raised synthesis adds to the slow phase. As the slow
+//     phase fades, resting synthesis takes over (restRate): in all muscle
+//     alike, whether it worked or not, driven by the same glucose supply
+//     and slowing to nothing as the density nears the level recent intake
+//     sets: the typical density times the carbohydrate absorbed over the
+//     last day or so over resting use (Bergström 1967, from memory: low,
+//     mixed and high carbohydrate diets leave low, typical and high
+//     stores). So 5 g/kg a day with no training holds stores in the
+//     typical band, and 10 g/kg a day at rest loads them within two or
+//     three days (Bussau 2002, from memory). The constants are checked
+//     against the studies in calibration_test.go.
 //     Supply beyond what muscle and liver can take is oxidised or stored
 //     as fat. Exercise and daily living take working muscle down to the
 //     depleted floor (25 mmol/kg), not below.
@@ -66,9 +74,12 @@ type simBody struct {
 	liverFloorG        float64 // below this the liver's glycogen output slows
 	gngGPerH           float64 // gluconeogenesis in exercise
 	gutGPerH           float64
+	// needGPerH is resting and daily-living carbohydrate use at typical
+	// stores: the intake that holds resting muscle at the typical density.
+	needGPerH float64
 
 	// per-step constants of the last dt (the simulation uses few step sizes)
-	stepDt, gutFrac, boostDecay, slowDecay float64
+	stepDt, gutFrac, boostDecay, slowDecay, intakeFrac float64
 }
 
 func newSimBody(b Body) simBody {
@@ -82,6 +93,7 @@ func newSimBody(b Body) simBody {
 		massKg:      b.MassKg,
 		liverCapG:   b.LiverCapG,
 		restOxGPerH: gRestOx.Min * b.MassKg,
+		needGPerH:   gRestOx.Min * b.MassKg,
 		// The fasting liver gives up the overnight fall's upper end (half)
 		// over the fast's middle hours (11 of 10–12) less the first two
 		// gut time constants (3 h), in which the evening meal is still
@@ -105,6 +117,13 @@ type simState struct {
 	// step by step.
 	sinceExH  float64
 	boostLeft float64
+	// windowLeft is exp(−sinceExH/τ) of the slow phase of the window: the
+	// raised synthesis of the muscle that worked fades over a day or two.
+	windowLeft float64
+	// IntakeGPerH is the carbohydrate absorbed lately, g/h, averaged with
+	// the time constant of model.rest-level: the intake resting muscle
+	// stores answer to.
+	IntakeGPerH float64
 	// slowLeft is the slow phase: the fibres a near-maximal bout recruited
 	// beyond a submaximal one's (type II as well as type I), relative to
 	// those, times exp(−sinceExH/τ); 0 after submaximal exercise only.
@@ -115,6 +134,7 @@ type simState struct {
 func (s simState) since(h float64) simState {
 	s.sinceExH = h
 	s.boostLeft = math.Exp(-h / gModelBoost.Max)
+	s.windowLeft = math.Exp(-h / gModelSlow.Max)
 	s.slowLeft = 0
 	return s
 }
@@ -125,31 +145,57 @@ func (b simBody) muscleG(s simState) float64 {
 
 func (b simBody) workingG(s simState) float64 { return GlycogenG(s.Dw, b.workingKg) }
 
-// synthRate is the muscle synthesis rate in mmol/kg/h at density d, as
-// the product of three mechanisms: emptiness (glycogen synthase is most
-// active in empty muscle; the rate slows as the fourth root of the room
-// left, to zero at the capacity density), the post-exercise window and
-// the supply of glucose (xGPerKgH, the carbohydrate absorbed in g per kg
-// body mass per hour: synthesis rises with intake towards a plateau near
-// 1.2 g/kg/h, Ivy 2004). The window has a rapid phase (boostLeft: 1 just
-// after exercise, decaying in hours; the rested rate is a share of the
-// early one, Ivy 1988) and a slow one (slowLeft: the extra fibres a
-// near-maximal bout recruited, their raised synthesis fading over a day or
-// two, Jentjens & Jeukendrup 2003).
-func synthRate(d, boostLeft, slowLeft, xGPerKgH float64) float64 {
+// synthRate is the synthesis rate of the working muscle's post-exercise
+// window in mmol/kg/h at density d, as the product of three mechanisms:
+// emptiness (glycogen synthase is most active in empty muscle; the rate
+// slows as the fourth root of the room left, to zero at the capacity
+// density), the window w (window) and the supply of glucose (xGPerKgH, the
+// carbohydrate absorbed in g per kg body mass per hour: synthesis rises
+// with intake towards a plateau near 1.2 g/kg/h, Ivy 2004).
+func synthRate(d, w, xGPerKgH float64) float64 {
 	capD, lowD := gModelCapacity.Min, gDepleted.Min
 	g := (capD - d) / (capD - lowD)
-	if g <= 0 || xGPerKgH <= 0 {
+	if g <= 0 || xGPerKgH <= 0 || w <= 0 {
 		return 0
 	}
-	if g > 1 {
-		g = 1
-	}
-	g = math.Sqrt(math.Sqrt(g))
+	g = math.Sqrt(math.Sqrt(min(g, 1)))
+	return gResynthPeak.Min * g * w * supplyShare(xGPerKgH)
+}
+
+// supplyShare is x/(x+K) of the carbohydrate absorbed, g/kg/h.
+func supplyShare(xGPerKgH float64) float64 { return xGPerKgH / (xGPerKgH + gModelSupply.Min) }
+
+// window is the post-exercise window of the working muscle, as a share of
+// the rate just after exercise: a rapid phase (boostLeft: 1 just after
+// exercise, decaying in hours; Ivy 1988) over a slow one (the raised
+// insulin sensitivity of the muscle that worked, fading over a day or two,
+// Jentjens & Jeukendrup 2003), the slow one larger after a near-maximal
+// bout by the extra fibres it recruited (slowLeft).
+func (s simState) window() float64 {
 	rested := gModelBoost.Min
-	w := rested*(1+slowLeft) + (1-rested)*boostLeft
-	supply := xGPerKgH / (xGPerKgH + gModelSupply.Min)
-	return gResynthPeak.Min * g * w * supply
+	return rested*(s.windowLeft+s.slowLeft) + (1-rested)*s.boostLeft
+}
+
+// restLevel is the density resting muscle settles at on the intake of
+// late: the typical density times recent intake over resting use (a diet
+// with no carbohydrate leaves muscle depleted, a mixed one typical, a high
+// one loaded: Bergström 1967, from memory), at most the capacity.
+func (b *simBody) restLevel(s *simState) float64 {
+	if b.needGPerH <= 0 {
+		return gModelTypical.Min
+	}
+	return min(gModelCapacity.Min, gModelTypical.Min*s.IntakeGPerH/b.needGPerH)
+}
+
+// restRate is resting synthesis in mmol/kg/h at density d, in any muscle:
+// driven by the supply of glucose, slowing as the density approaches the
+// level recent intake sets (restLevel), none above it.
+func restRate(d, level, xGPerKgH float64) float64 {
+	if d >= level || xGPerKgH <= 0 {
+		return 0
+	}
+	room := min(1, (level-d)/(level-gDepleted.Min))
+	return gResynthPeak.Min * gRestSynth.Min * math.Pow(room, gRestSynth.Max) * supplyShare(xGPerKgH)
 }
 
 // recruitShare is the share of the working muscle's fibres a bout at pct
@@ -206,12 +252,14 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH, recruit float64) (
 		b.gutFrac = 1 - math.Exp(-dt/gModelGut.Max)
 		b.boostDecay = math.Exp(-dt / gModelBoost.Max)
 		b.slowDecay = math.Exp(-dt / gModelSlow.Max)
+		b.intakeFrac = 1 - math.Exp(-dt/gRestLevel.Max)
 	}
 	s.GutG += eatGPerH * dt
 	// The gut delivers first-order (time constant gModelGut.Max), at most
 	// gutGPerH: the exogenous oxidation ceiling of mixed carbohydrate.
 	a := min(s.GutG*b.gutFrac, b.gutGPerH*dt)
 	s.GutG -= a
+	s.IntakeGPerH += (a/dt - s.IntakeGPerH) * b.intakeFrac
 	if use > 0 {
 		c := use * dt
 		exo := min(a, cover*c)
@@ -244,6 +292,7 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH, recruit float64) (
 		}
 		s.sinceExH = 0
 		s.boostLeft = 1
+		s.windowLeft = 1
 		s.slowLeft = max(s.slowLeft, recruit-1)
 		// Left-over absorbed carbohydrate tops up the liver.
 		s.LiverG = min(b.liverCapG, s.LiverG+a)
@@ -251,6 +300,7 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH, recruit float64) (
 	}
 	s.sinceExH += dt
 	s.boostLeft *= b.boostDecay
+	s.windowLeft *= b.slowDecay
 	s.slowLeft *= b.slowDecay
 	// The supply that drives synthesis: all carbohydrate absorbed, per kg
 	// body mass per hour.
@@ -291,8 +341,11 @@ func (b *simBody) step(s *simState, dt, use, cover, eatGPerH, recruit float64) (
 	// Muscle synthesis (rate-limited, shared in proportion to demand);
 	// the liver takes what is left.
 	k := gGlucosyl.Min * dt
-	dw := synthRate(s.Dw, s.boostLeft, s.slowLeft, x) * b.workingKg * k
-	do := gOtherRate.Min * synthRate(s.Do, 0, 0, x) * b.otherKg * k
+	// Resting synthesis runs in all muscle alike; the working muscle adds
+	// its post-exercise window.
+	lvl := b.restLevel(s)
+	dw := (synthRate(s.Dw, s.window(), x) + (1-s.windowLeft)*restRate(s.Dw, lvl, x)) * b.workingKg * k
+	do := restRate(s.Do, lvl, x) * b.otherKg * k
 	if need := dw + do; need > a {
 		f := a / need
 		dw, do = dw*f, do*f

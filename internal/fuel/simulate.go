@@ -11,13 +11,15 @@ import (
 // usual day of a trained athlete leaves them (the moderate band's lower
 // end, 5 g/kg, over the default eating occasions): the fed liver of the
 // evening (100–120 g at 70 kg, common practice) a few hours into the
-// night's fast, the last of the evening meal still being absorbed.
+// night's fast, the last of the evening meal still being absorbed, and
+// that day's intake as the recent intake resting synthesis answers to.
 // Computed once per plan.
 func (p *planner) startState() simState {
 	if p.haveStart {
 		return p.start
 	}
-	s := simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: p.sb.liverCapG}.since(gStartSince.Min)
+	s := simState{Dw: gModelTypical.Min, Do: gModelTypical.Min, LiverG: p.sb.liverCapG,
+		IntakeGPerH: gBandModerate.Min * p.body.MassKg / 24}.since(gStartSince.Min)
 	sched := scheduleFor(p.occasions)
 	var w, g [16]float64
 	var in [16]intake
