@@ -13,6 +13,7 @@ import (
 	"github.com/chromedp/chromedp"
 
 	"larder/internal/auth"
+	"larder/internal/fuel"
 	"larder/internal/store"
 	"larder/internal/testdb"
 )
@@ -170,6 +171,7 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 	}
 	axeVisit(t, ctx, src, "client's phone page", a.srv.URL+"/c/"+token)
 	axeVisit(t, ctx, src, "client link no longer valid", a.srv.URL+"/c/"+strings.Repeat("A", 43))
+	axeVisit(t, ctx, src, "client's phone page with the dietitian's notes", a.srv.URL+"/c/"+notedLink(t, a))
 	if err := chromedp.Do(ctx, chromedp.EmulateViewport(1280, 1000)); err != nil {
 		t.Fatal(err)
 	}
@@ -278,6 +280,19 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 	}
 	axeCheck(t, ctx, src, "plan draft with a food choice")
 	axeVisit(t, ctx, src, "feed food with a saved choice", foodPage)
+
+	if err := chromedp.Do(ctx, chromedp.Navigate(draftURL), chromedp.WaitVisible(chromedp.ID("plan-edit"))); err != nil {
+		t.Fatal(err)
+	}
+	// A note to the athlete too long for the phone page, refused beside its box.
+	if _, err := chromedp.Run(ctx, chromedp.Evaluate[bool](`(() => { document.getElementById('f-note_plan').value = 'Eat well. '.repeat(200);
+		document.querySelector('#plan-edit button[value=save]').click(); return true })()`)); err != nil {
+		t.Fatalf("save a long note: %v", err)
+	}
+	if err := chromedp.Do(ctx, chromedp.WaitVisible(chromedp.ID("err-note_plan"))); err != nil {
+		t.Fatalf("no message beside the note (%s): %v", pageURL(ctx), err)
+	}
+	axeCheck(t, ctx, src, "plan draft with a note to the athlete refused")
 }
 
 // TestBrowserAxePhoneRaceDays checks the phone page's race days at phone
@@ -306,4 +321,42 @@ func TestBrowserAxePhoneRaceDays(t *testing.T) {
 		}
 		shot(t, ctx, "phone-"+strings.TrimSuffix(v.file, ".json"))
 	}
+}
+
+// notedLink publishes a plan with notes to the athlete on the whole plan and
+// on its first two days, for a client who shares a health note, and
+// returns a link token to it.
+func notedLink(t *testing.T, a *app) string {
+	t.Helper()
+	ctx := context.Background()
+	c := a.newClient(unique("Axe Noted"))
+	c.SharedNote = "Keep to gluten-free foods."
+	if err := a.st.UpdateClient(ctx, store.System, &c); err != nil {
+		t.Fatal(err)
+	}
+	req := weekRequest(testNow.Format(time.DateOnly), 5)
+	plan, err := fuel.Compute(req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: req.Athlete.BodyMassKg, Notes: &store.PlanNotes{
+		Plan: "Eat breakfast before the long runs.\nBring your own bottles.",
+		Days: map[string]string{plan.Days[0].Date: "Long run today: a gel every 45 minutes.", plan.Days[1].Date: "Easy day."}}}
+	p := store.Plan{ClientID: c.ID, Kind: req.Kind, Title: "Week with notes"}
+	v, err := a.st.CreatePlan(ctx, store.System, &p, content)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := a.st.Publish(ctx, store.System, v.ID, v.Revision, content); err != nil {
+		t.Fatal(err)
+	}
+	token, hash, err := auth.NewLinkToken()
+	if err != nil {
+		t.Fatal(err)
+	}
+	link := store.ClientLink{ClientID: c.ID, TokenHash: hash, Label: unique("axe notes"), ExpiresAt: testNow.AddDate(0, 3, 0)}
+	if err := a.st.CreateClientLink(ctx, store.System, &link); err != nil {
+		t.Fatal(err)
+	}
+	return token
 }

@@ -111,7 +111,7 @@ func (s *Server) clientRecordZip(w http.ResponseWriter, r *http.Request, c store
 		return
 	}
 	for _, pp := range plans {
-		pdf, err := s.planSheetPDF(r, c, pp.Plan, pp.Version, sheet.A4)
+		pdf, err := s.planSheetPDF(r, c, pp.Plan, pp.Version, sheet.A4, sheet.FormStaff)
 		if err != nil {
 			s.ServerError(w, r, err)
 			return

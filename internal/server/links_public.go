@@ -31,6 +31,7 @@ func (s *Server) mountClientLinkRoutes(r chi.Router) {
 		r.Use(clientLinkHeaders)
 		r.Get("/c/{token}", s.clientDayPage)
 		r.Get("/c/{token}/plan.ics", s.clientCalendar)
+		r.Get("/c/{token}/sheet.pdf", s.clientSheet)
 	})
 }
 
@@ -185,6 +186,7 @@ func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
 	v := web.ClientDayView{
 		PracticeName: o.PracticeName, FirstName: firstName(o.ClientName), Caution: fuel.Caution,
 		Notes: splitCautions(o.SharedNote), ShowFigures: o.ShowFigures, CalendarURL: r.URL.Path + "/plan.ics",
+		SheetURL:  r.URL.Path + "/sheet.pdf",
 		DateLabel: now.UTC().Format("Monday 2 January 2006"),
 	}
 	if p, today, ok := currentPlan(plans, now); ok {
@@ -206,18 +208,32 @@ func fillDay(v *web.ClientDayView, p linkPlan, today string, now time.Time) {
 	v.DateLabel = now.In(p.loc).Format("Monday 2 January 2006")
 	v.ZoneLabel = p.loc.String()
 	v.PlanTitle = p.Plan.Title
+	v.PlanNote = noteLines(p.Version.Notes.Plan)
 	for _, d := range plan.Days {
 		switch {
 		case d.Date == today:
 			v.Today = todayView(p, d)
+			v.Today.Note = noteLines(p.Version.Notes.Day(d.Date))
 		case d.Date > today && len(v.Next) < nextDaysShown:
 			v.Next = append(v.Next, web.ClientDayBrief{DateLabel: dayWords(d.Date), Role: clientRoleWords(d),
-				ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1), Event: d.Role == "event"})
+				ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1), Event: d.Role == "event",
+				Note: strings.TrimSpace(p.Version.Notes.Day(d.Date))})
 		}
 	}
 	if v.Today == nil && p.first > today {
 		v.Upcoming = "Your plan starts on " + longDay(p.first) + "."
 	}
+}
+
+// noteLines splits a note to the athlete into its paragraphs.
+func noteLines(note string) []string {
+	var out []string
+	for _, l := range strings.Split(note, "\n") {
+		if l = strings.TrimSpace(l); l != "" {
+			out = append(out, l)
+		}
+	}
+	return out
 }
 
 func todayView(p linkPlan, d fuel.Day) *web.ClientToday {

@@ -100,7 +100,7 @@ func (s *Server) showPlan(w http.ResponseWriter, r *http.Request) {
 			cur = v
 		}
 	}
-	s.renderPlan(w, r, http.StatusOK, c, p, cur, versions, overrideValues(cur.Request), "")
+	s.renderPlan(w, r, http.StatusOK, c, p, cur, versions, versionValues(cur), "")
 }
 
 func (s *Server) versionFromURL(w http.ResponseWriter, r *http.Request) (store.Client, store.Plan, store.PlanVersion, []store.PlanVersion, bool) {
@@ -132,7 +132,7 @@ func (s *Server) showPlanVersion(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	s.renderPlan(w, r, http.StatusOK, c, p, v, versions, overrideValues(v.Request), "")
+	s.renderPlan(w, r, http.StatusOK, c, p, v, versions, versionValues(v), "")
 }
 
 func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, c store.Client, p store.Plan, v store.PlanVersion,
@@ -159,7 +159,7 @@ func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, 
 		pv.Carry = carriedValues(f)
 	}
 	if pv.Editable && notice != "" {
-		pv.Theirs = differing(f, overrideValues(v.Request))
+		pv.Theirs = differing(f, versionValues(v))
 	}
 	s.Render(w, r, status, p.Title, "clients", web.PlanPage(pv))
 }
@@ -195,6 +195,10 @@ func (s *Server) revisePlan(w http.ResponseWriter, r *http.Request) {
 	if values := overrideInputs(r.PostForm); len(values) > 0 {
 		req, f := decodeOverrides(values, v.Request)
 		plan, cerr := fuel.Compute(req)
+		var notes *store.PlanNotes
+		if cerr == nil {
+			notes = decodeNotes(values, plan, &f)
+		}
 		if f.Has() || cerr != nil {
 			versions, err := s.Store.PlanVersions(r.Context(), p.ID)
 			if err != nil {
@@ -210,7 +214,7 @@ func (s *Server) revisePlan(w http.ResponseWriter, r *http.Request) {
 			return
 		}
 		content := store.PlanContent{Request: req, Result: plan, BodyMassKg: v.BodyMassKg, BodyMassOn: v.BodyMassOn,
-			Suggestions: sugg}
+			Suggestions: sugg, Notes: notes}
 		if _, err := s.Store.SaveDraft(r.Context(), Actor(r), v.ID, v.Revision, content); err != nil {
 			if errors.Is(err, store.ErrStaleRevision) || errors.Is(err, store.ErrNotDraft) {
 				s.conflict(w, r, c, p, v, f, err)
@@ -238,11 +242,11 @@ func (s *Server) discardDraft(w http.ResponseWriter, r *http.Request) {
 	gone, err := s.Store.DiscardDraft(r.Context(), Actor(r), v.ID, revision)
 	switch {
 	case errors.Is(err, store.ErrStaleRevision):
-		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, overrideValues(v.Request),
+		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, versionValues(v),
 			"Not discarded: someone saved this draft after you opened it. Look at their changes before discarding it.")
 		return
 	case errors.Is(err, store.ErrNotDraft):
-		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, overrideValues(v.Request),
+		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, versionValues(v),
 			"Not discarded: this version is no longer a draft. Published versions are kept.")
 		return
 	case err != nil:

@@ -249,13 +249,18 @@ func (s *Server) editPlanVersion(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
+	notes := decodeNotes(values, plan, &f)
+	if f.Has() {
+		s.renderPlan(w, r, http.StatusUnprocessableEntity, c, p, v, versions, f, "")
+		return
+	}
 	sugg, err := s.planSuggestions(r.Context(), c, plan)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
 	content := store.PlanContent{Request: req, Result: plan, BodyMassKg: req.Athlete.BodyMassKg, BodyMassOn: v.BodyMassOn,
-		Suggestions: sugg}
+		Suggestions: sugg, Notes: notes}
 	if req.Athlete.BodyMassKg != v.BodyMassKg {
 		// A new figure: dated when it is the latest measurement on record.
 		content.BodyMassOn = nil
@@ -324,6 +329,8 @@ func carriedValues(f forms.Form) []web.Carried {
 		switch {
 		case name == duringName:
 			label = "In-event carbohydrate (g/h)"
+		case isNoteInput(name):
+			label = noteLabel(name)
 		case name == massName:
 			label = "Body mass (kg)"
 		case name == fatName:
@@ -354,7 +361,7 @@ func carriedValues(f forms.Form) []web.Carried {
 func overrideInputs(form url.Values) url.Values {
 	v := url.Values{}
 	for name, vals := range form {
-		if name == duringName || name == massName || name == fatName || strings.HasPrefix(name, "gkg_") || strings.HasPrefix(name, "occ_") || strings.HasPrefix(name, stageGPHPrefix) ||
+		if name == duringName || name == massName || name == fatName || isNoteInput(name) || strings.HasPrefix(name, "gkg_") || strings.HasPrefix(name, "occ_") || strings.HasPrefix(name, stageGPHPrefix) ||
 			strings.HasPrefix(name, "feedcho_") || strings.HasPrefix(name, "feedat_") {
 			v[name] = vals
 		}

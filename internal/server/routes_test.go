@@ -23,13 +23,14 @@ import (
 // publicRoutes answer without a staff session. Every other route the router
 // has, including any added later, must send an anonymous visitor to sign in.
 var publicRoutes = map[string]bool{
-	"/static/*":           true,
-	"/healthz":            true,
-	"/signin":             true,
-	"/setup":              true,
-	"/signout":            true,
-	"/c/{token}":          true,
-	"/c/{token}/plan.ics": true,
+	"/static/*":            true,
+	"/healthz":             true,
+	"/signin":              true,
+	"/setup":               true,
+	"/signout":             true,
+	"/c/{token}":           true,
+	"/c/{token}/plan.ics":  true,
+	"/c/{token}/sheet.pdf": true,
 }
 
 var routeParam = regexp.MustCompile(`\{([^}:]+)(:[^}]*)?\}`)

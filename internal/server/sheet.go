@@ -24,7 +24,7 @@ func (s *Server) mountSheetRoutes(r chi.Router) {
 }
 
 func (s *Server) publishedSheet(w http.ResponseWriter, r *http.Request) {
-	paper, ok := s.sheetPaper(w, r)
+	paper, form, ok := s.sheetPaper(w, r)
 	if !ok {
 		return
 	}
@@ -43,11 +43,11 @@ func (s *Server) publishedSheet(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	s.writeSheet(w, r, c, p, v, paper)
+	s.writeSheet(w, r, c, p, v, paper, form)
 }
 
 func (s *Server) versionSheet(w http.ResponseWriter, r *http.Request) {
-	paper, ok := s.sheetPaper(w, r)
+	paper, form, ok := s.sheetPaper(w, r)
 	if !ok {
 		return
 	}
@@ -65,26 +65,36 @@ func (s *Server) versionSheet(w http.ResponseWriter, r *http.Request) {
 		s.StoreError(w, r, err)
 		return
 	}
-	s.writeSheet(w, r, c, p, v, paper)
+	s.writeSheet(w, r, c, p, v, paper, form)
 }
 
-// sheetPaper reads ?paper=a4|letter; false means a 400 page was written.
-func (s *Server) sheetPaper(w http.ResponseWriter, r *http.Request) (sheet.Paper, bool) {
+// sheetPaper reads ?paper=a4|letter and ?form=staff|athlete; false means a
+// 400 page was written.
+func (s *Server) sheetPaper(w http.ResponseWriter, r *http.Request) (sheet.Paper, sheet.Form, bool) {
 	paper, ok := sheet.ParsePaper(r.URL.Query().Get("paper"))
 	if !ok {
 		s.Render(w, r, http.StatusBadRequest, "Unknown paper size", "clients",
 			web.Message("Unknown paper size", "The plan sheet prints on A4 or Letter paper: use ?paper=a4 or ?paper=letter (A4 when left out)."))
+		return paper, "", false
 	}
-	return paper, ok
+	form, ok := sheet.ParseForm(r.URL.Query().Get("form"))
+	if !ok {
+		s.Render(w, r, http.StatusBadRequest, "Unknown form of the sheet", "clients",
+			web.Message("Unknown form of the sheet", "The plan sheet has two forms: the dietitian's (?form=staff, the default) and the athlete's (?form=athlete)."))
+	}
+	return paper, form, ok
 }
 
-func (s *Server) writeSheet(w http.ResponseWriter, r *http.Request, c store.Client, p store.Plan, v store.PlanVersion, paper sheet.Paper) {
-	pdf, err := s.planSheetPDF(r, c, p, v, paper)
+func (s *Server) writeSheet(w http.ResponseWriter, r *http.Request, c store.Client, p store.Plan, v store.PlanVersion, paper sheet.Paper, form sheet.Form) {
+	pdf, err := s.planSheetPDF(r, c, p, v, paper, form)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
 	name := fmt.Sprintf("plan-sheet-%s-v%d", fileWord(c.Name), v.Version)
+	if form == sheet.FormAthlete {
+		name = fmt.Sprintf("athlete-sheet-%s-v%d", fileWord(c.Name), v.Version)
+	}
 	if v.Status == store.PlanDraft {
 		name += "-DRAFT"
 	}
@@ -95,8 +105,10 @@ func (s *Server) writeSheet(w http.ResponseWriter, r *http.Request, c store.Clie
 	_, _ = w.Write(pdf)
 }
 
-// planSheetPDF renders a plan version's sheet (also used by the record export).
-func (s *Server) planSheetPDF(r *http.Request, c store.Client, p store.Plan, v store.PlanVersion, paper sheet.Paper) ([]byte, error) {
+// planSheetPDF renders a plan version's sheet in either form (also used by
+// the record export). The athlete's form gets the health note the
+// dietitian shared, never the recorded cautions.
+func (s *Server) planSheetPDF(r *http.Request, c store.Client, p store.Plan, v store.PlanVersion, paper sheet.Paper, form sheet.Form) ([]byte, error) {
 	ctx := r.Context()
 	sh := sheet.Sheet{
 		PracticeName: s.PracticeName(r), ClientName: c.Name, Title: p.Title,
@@ -104,6 +116,8 @@ func (s *Server) planSheetPDF(r *http.Request, c store.Client, p store.Plan, v s
 		Version: v.Version, Status: v.Status, PublishedAt: v.PublishedAt,
 		BodyMassKg: v.BodyMassKg, BodyMassOn: v.BodyMassOn,
 		Training: trainingByDate(v.Request.Training), Plan: v.Result, Printed: s.Now(),
+		Form: form, PlanNote: v.Notes.Plan, DayNotes: v.Notes.Days,
+		SharedNote: splitCautions(c.SharedNote), ShowFigures: c.AthleteSeesEnergyMass,
 	}
 	// The client's cautions as recorded now, and any the plan was computed
 	// with that have since been taken off the record: on a sheet, a caution
@@ -114,6 +128,9 @@ func (s *Server) planSheetPDF(r *http.Request, c store.Client, p store.Plan, v s
 			seen[k] = true
 			sh.ClientCautions = append(sh.ClientCautions, strings.TrimSpace(x))
 		}
+	}
+	if form == sheet.FormAthlete {
+		sh.ClientCautions = nil // the athlete's surfaces carry only the shared note
 	}
 	if p.EventID != nil {
 		e, err := s.Store.EventByID(ctx, c.ID, *p.EventID)

@@ -73,6 +73,19 @@ type Sheet struct {
 	// menu.FeedKey.
 	Suggestions map[string]string
 	Printed     time.Time
+
+	// Form is which form prints: the dietitian's (the zero value) or the
+	// athlete's.
+	Form Form
+	// PlanNote and DayNotes (by date YYYY-MM-DD) are the dietitian's notes
+	// to the athlete.
+	PlanNote string
+	DayNotes map[string]string
+	// SharedNote is the health note the dietitian shared with the athlete,
+	// line by line; the athlete's form prints it and never ClientCautions.
+	SharedNote []string
+	// ShowFigures puts energy and body-mass figures on the athlete's form.
+	ShowFigures bool
 }
 
 // Write renders the sheet as PDF to w.
@@ -81,7 +94,11 @@ func Write(w io.Writer, s Sheet, paper Paper) error {
 	if err != nil {
 		return err
 	}
-	d.body()
+	if s.Form == FormAthlete {
+		d.athleteBody()
+	} else {
+		d.body()
+	}
 	if err := d.f.Error(); err != nil {
 		return fmt.Errorf("sheet: %w", err)
 	}
@@ -146,7 +163,11 @@ func newDoc(s Sheet, paper Paper) (*doc, error) {
 	f.SetTitle(clean(s.Title), true)
 	f.SetAuthor(clean(s.PracticeName), true)
 	f.SetCreator("Larder", true)
-	f.SetSubject(clean("Plan sheet for "+s.ClientName), true)
+	if s.Form == FormAthlete {
+		f.SetSubject(clean("Fuelling plan for "+s.ClientName), true)
+	} else {
+		f.SetSubject(clean("Plan sheet for "+s.ClientName), true)
+	}
 	addFonts(f)
 	if err := f.Error(); err != nil {
 		return nil, fmt.Errorf("sheet: fonts: %w", err)

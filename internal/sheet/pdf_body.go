@@ -35,7 +35,7 @@ func (d *doc) header() {
 	f.CellFormat(d.w/2, 5, d.tr(d.s.PracticeName), "", 0, "L", false, 0, "")
 	d.font("", 8.5)
 	d.color(colMuted)
-	right := "Plan sheet · printed " + d.s.Printed.In(d.loc).Format("2 Jan 2006")
+	right := d.formName() + " · printed " + d.s.Printed.In(d.loc).Format("2 Jan 2006")
 	if f.PageNo() > 1 {
 		right = d.s.ClientName + " · " + d.s.Title + " (continued)"
 	}
@@ -110,6 +110,7 @@ func (d *doc) body() {
 	d.eventFigures()
 	d.raceParts()
 	d.repletion()
+	d.staffNotes()
 	d.findings()
 	d.feeds()
 }

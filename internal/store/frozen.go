@@ -79,7 +79,7 @@ func (s *Store) scanListedVersion(ctx context.Context, row pgx.Row) (PlanVersion
 	var v PlanVersion
 	var req, res []byte
 	err := row.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
-		&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt)
+		&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt, &v.Notes)
 	if err != nil {
 		return v, notFound(err)
 	}
@@ -109,7 +109,7 @@ func (s *Store) PlanVersions(ctx context.Context, planID int64) ([]PlanVersion, 
 		var v PlanVersion
 		var req, res []byte
 		if err := rows.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
-			&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt); err != nil {
+			&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt, &v.Notes); err != nil {
 			rows.Close()
 			return nil, err
 		}

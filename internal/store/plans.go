@@ -49,6 +49,7 @@ type PlanVersion struct {
 	UpdatedByName string
 	UpdatedAt     time.Time
 	PublishedAt   *time.Time
+	Notes         PlanNotes // the dietitian's notes to the athlete
 }
 
 // PlanContent is what a save writes into a draft version.
@@ -60,6 +61,8 @@ type PlanContent struct {
 	// Suggestions are the food suggestions shown with feeds, keyed by
 	// FeedKey; they are kept in plan_feeds for the sheet.
 	Suggestions map[string]string
+	// Notes to the athlete; nil keeps the version's notes as they are.
+	Notes *PlanNotes
 }
 
 // FeedKey names one feed of a plan for Suggestions: kind is "day",
@@ -92,7 +95,7 @@ func planDest(p *Plan) []any {
 }
 
 const versionCols = `v.id, v.plan_id, v.version, v.status, v.request, v.result, v.body_mass_kg::float8, v.body_mass_on,
-	v.revision, coalesce(cu.name, ''), v.created_at, coalesce(uu.name, ''), v.updated_at, v.published_at`
+	v.revision, coalesce(cu.name, ''), v.created_at, coalesce(uu.name, ''), v.updated_at, v.published_at, v.athlete_notes`
 
 const versionFrom = ` FROM plan_versions v LEFT JOIN users cu ON cu.id = v.created_by LEFT JOIN users uu ON uu.id = v.updated_by `
 
@@ -100,7 +103,7 @@ func scanVersion(row pgx.Row) (PlanVersion, error) {
 	var v PlanVersion
 	var req, res []byte
 	err := row.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
-		&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt)
+		&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt, &v.Notes)
 	if err != nil {
 		return v, notFound(err)
 	}
@@ -150,9 +153,13 @@ func insertVersion(ctx context.Context, tx pgx.Tx, actor Actor, planID int64, nu
 		return 0, err
 	}
 	var id int64
-	if err := tx.QueryRow(ctx, `INSERT INTO plan_versions (plan_id, version, status, request, result, body_mass_kg, body_mass_on, created_by, updated_by)
-		VALUES ($1, $2, 'draft', $3, $4, $5, $6, $7, $7) RETURNING id`,
-		planID, number, req, res, c.BodyMassKg, c.BodyMassOn, actorID(actor)).Scan(&id); err != nil {
+	notes := PlanNotes{}
+	if c.Notes != nil {
+		notes = *c.Notes
+	}
+	if err := tx.QueryRow(ctx, `INSERT INTO plan_versions (plan_id, version, status, request, result, body_mass_kg, body_mass_on, created_by, updated_by, athlete_notes)
+		VALUES ($1, $2, 'draft', $3, $4, $5, $6, $7, $7, $8) RETURNING id`,
+		planID, number, req, res, c.BodyMassKg, c.BodyMassOn, actorID(actor), notes).Scan(&id); err != nil {
 		return 0, err
 	}
 	return id, writeRows(ctx, tx, id, c)
@@ -216,8 +223,8 @@ func (s *Store) SaveDraft(ctx context.Context, actor Actor, versionID int64, rev
 			return err
 		}
 		if _, err := tx.Exec(ctx, `UPDATE plan_versions SET request = $2, result = $3, body_mass_kg = $4, body_mass_on = $5,
-			revision = revision + 1, updated_by = $6, updated_at = now() WHERE id = $1`,
-			versionID, req, res, c.BodyMassKg, c.BodyMassOn, actorID(actor)); err != nil {
+			revision = revision + 1, updated_by = $6, updated_at = now(), athlete_notes = coalesce($7, athlete_notes) WHERE id = $1`,
+			versionID, req, res, c.BodyMassKg, c.BodyMassOn, actorID(actor), c.Notes); err != nil {
 			return err
 		}
 		if err := writeRows(ctx, tx, versionID, c); err != nil {
@@ -271,8 +278,8 @@ func (s *Store) Publish(ctx context.Context, actor Actor, versionID int64, revis
 			return err
 		}
 		if _, err := tx.Exec(ctx, `UPDATE plan_versions SET request = $2, result = $3, body_mass_kg = $4, body_mass_on = $5,
-			revision = revision + 1, updated_by = $6, updated_at = now() WHERE id = $1`,
-			versionID, req, res, c.BodyMassKg, c.BodyMassOn, actorID(actor)); err != nil {
+			revision = revision + 1, updated_by = $6, updated_at = now(), athlete_notes = coalesce($7, athlete_notes) WHERE id = $1`,
+			versionID, req, res, c.BodyMassKg, c.BodyMassOn, actorID(actor), c.Notes); err != nil {
 			return err
 		}
 		if err := writeRows(ctx, tx, versionID, c); err != nil {
@@ -335,7 +342,8 @@ func (s *Store) NewVersionWith(ctx context.Context, actor Actor, planID int64, f
 			}
 		}
 		id, err := insertVersion(ctx, tx, actor, planID, next, PlanContent{
-			Request: src.Request, Result: src.Result, BodyMassKg: src.BodyMassKg, BodyMassOn: src.BodyMassOn, Suggestions: sugg})
+			Request: src.Request, Result: src.Result, BodyMassKg: src.BodyMassKg, BodyMassOn: src.BodyMassOn, Suggestions: sugg,
+			Notes: &src.Notes})
 		if err != nil {
 			return err
 		}

@@ -1,0 +1,166 @@
+package sheet
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+
+	"larder/internal/sheet/sheettest"
+)
+
+// Words and units that belong to the dietitian's form only: guideline
+// checks and their sources, the fat-free mass, the glycogen model's units,
+// overrides and the recorded cautions box.
+var staffOnly = []string{
+	"mmol", "kcal/kg", "FFM", "fat-free", "Fat-free", "Findings", "Checked against", "within guideline", "guideline",
+	"from memory", "common practice", "model", "Source", "IOC", "ACSM", "REDs", "Mountjoy", "glycogen", "Glycogen",
+	"override", "g/kg", "Recorded caution", "Load band", "range ",
+}
+
+func athleteSheet(t *testing.T, name string, showFigures bool) (Sheet, string, int) {
+	t.Helper()
+	req, plan := example(t, name)
+	s := sheetFor(req, plan, StatusPublished)
+	s.Form = FormAthlete
+	s.ShowFigures = showFigures
+	s.SharedNote = []string{"Keep to gluten-free foods."}
+	s.PlanNote = "Eat breakfast within an hour of waking.\nBring your own bottles on race day."
+	s.DayNotes = map[string]string{plan.Days[len(plan.Days)-1].Date: "Have a recovery shake after the cool-down."}
+	pdf, err := Render(s, A4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if dir := os.Getenv("LARDER_SHEET_OUT"); dir != "" { // to look at them
+		fig := "-nofigures"
+		if showFigures {
+			fig = "-figures"
+		}
+		_ = os.WriteFile(filepath.Join(dir, "athlete-"+strings.TrimSuffix(name, ".json")+fig+".pdf"), pdf, 0o644)
+	}
+	text, ok := sheettest.Text(t, pdf)
+	if !ok {
+		t.Skip("pdftotext not installed")
+	}
+	return s, text, sheettest.Pages(pdf)
+}
+
+// The athlete's form speaks plainly: none of the dietitian's words or
+// units, never a recorded caution, the shared health note and the
+// dietitian's notes, every feeding time with its food.
+func TestAthleteFormPlainWords(t *testing.T) {
+	for _, name := range []string{"marathon-loading.json", "cyclist-5h-race.json", "rower-two-sessions.json", "runner-10k-race.json", "training-week.json"} {
+		t.Run(name, func(t *testing.T) {
+			s, text, pages := athleteSheet(t, name, false)
+			if pages < 1 || pages > 4 {
+				t.Errorf("%d pages, want 1–4", pages)
+			}
+			for _, w := range staffOnly {
+				if strings.Contains(text, w) {
+					t.Errorf("the athlete's form says %q:\n%s", w, text)
+				}
+			}
+			for _, c := range s.ClientCautions {
+				if strings.Contains(text, c) {
+					t.Errorf("a recorded caution reached the athlete's form: %q", c)
+				}
+			}
+			// Energy and body-mass figures are off unless the dietitian shows them.
+			for _, w := range []string{"kcal", " kg", "per kg", "58 kg"} {
+				if strings.Contains(text, w) {
+					t.Errorf("figures hidden, yet the form says %q:\n%s", w, text)
+				}
+			}
+			want := []string{"Your fuelling plan", "For Tomás Arriaga", "A note about your health", "Keep to gluten-free foods.",
+				"From your dietitian", "Eat breakfast within an hour of waking.", "Bring your own bottles on race day.",
+				"Your dietitian: Have a recovery shake after the cool-down.", "not medical advice"}
+			for _, d := range s.Plan.Days {
+				want = append(want, dayWords(d.Date))
+				for _, f := range d.Feeds {
+					want = append(want, f.At.In(mustZone(t, s)).Format("15:04")+" "+mealWords(f.Label))
+				}
+			}
+			for _, w := range want {
+				if !strings.Contains(text, w) {
+					t.Errorf("the athlete's form lacks %q:\n%s", w, text)
+				}
+			}
+		})
+	}
+}
+
+// With figures shown, the day's energy and carbohydrate per kg appear.
+func TestAthleteFormFiguresWhenShown(t *testing.T) {
+	s, text, _ := athleteSheet(t, "marathon-loading.json", true)
+	d := s.Plan.Days[0]
+	for _, w := range []string{"about " + num(d.EnergyKcal, 0) + " kcal", num(d.ChoGPerKg, 1) + " g carbohydrate per kg body weight"} {
+		if !strings.Contains(text, w) {
+			t.Errorf("figures shown, yet the form lacks %q:\n%s", w, text)
+		}
+	}
+	if s.Plan.ExpectedMassGainKg != nil && !strings.Contains(text, "You may weigh about "+num(*s.Plan.ExpectedMassGainKg, 1)) {
+		t.Errorf("the expected body-mass gain is not printed:\n%s", text)
+	}
+	for _, w := range []string{"mmol", "FFM", "Checked against", "from memory"} {
+		if strings.Contains(text, w) {
+			t.Errorf("the athlete's form says %q", w)
+		}
+	}
+}
+
+// The dietitian's form keeps its cautions and figures, and lists the notes
+// given to the athlete.
+func TestStaffFormListsNotes(t *testing.T) {
+	req, plan := example(t, "marathon-loading.json")
+	s := sheetFor(req, plan, StatusPublished)
+	s.PlanNote = "Eat breakfast within an hour of waking."
+	s.DayNotes = map[string]string{plan.Days[0].Date: "Easy day: keep the snacks small."}
+	s.SharedNote = []string{"Keep to gluten-free foods."}
+	pdf, err := Render(s, A4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, ok := sheettest.Text(t, pdf)
+	if !ok {
+		t.Skip("pdftotext not installed")
+	}
+	for _, w := range []string{"Plan sheet", "Recorded caution", "Coeliac disease", "Findings", "Notes to the athlete",
+		"Whole plan Eat breakfast within an hour of waking.", dayWords(plan.Days[0].Date) + " Easy day: keep the snacks small."} {
+		if !strings.Contains(text, w) {
+			t.Errorf("the dietitian's form lacks %q:\n%s", w, text)
+		}
+	}
+	if n := sheettest.Pages(pdf); n > 3 {
+		t.Errorf("%d pages", n)
+	}
+}
+
+func TestParseForm(t *testing.T) {
+	for in, want := range map[string]Form{"": FormStaff, "staff": FormStaff, "athlete": FormAthlete, " Athlete ": FormAthlete} {
+		if got, ok := ParseForm(in); !ok || got != want {
+			t.Errorf("ParseForm(%q) = %q, %v", in, got, ok)
+		}
+	}
+	if _, ok := ParseForm("client"); ok {
+		t.Error("ParseForm accepted an unknown form")
+	}
+}
+
+func mustZone(t *testing.T, s Sheet) *time.Location {
+	t.Helper()
+	loc, _ := planZone(s)
+	return loc
+}
+
+func BenchmarkAthleteSheet(b *testing.B) {
+	req, plan := example(b, "marathon-loading.json")
+	s := sheetFor(req, plan, StatusPublished)
+	s.Form = FormAthlete
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := Render(s, A4); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
