@@ -147,7 +147,13 @@ func (p *planner) setup() {
 		if mod == "" {
 			mod = p.modality
 		}
-		s := sessionInfo{date: t.Date, start: clockOn(d, startMin), durMin: t.DurationMin, modality: mod, pct: intensityPct(in), trainLow: t.TrainLow}
+		s := sessionInfo{date: t.Date, start: clockOn(d, startMin), durMin: t.DurationMin, modality: mod, pct: intensityPct(in), trainLow: t.TrainLow, powerW: t.AveragePowerW}
+		if r, _, ok := paceKcalPerH(p.body, mod, nil, t.AveragePowerW, t.DurationMin); ok && p.body.VO2max > 0 && in.Word != "pct" {
+			// A measured power says more than a felt intensity: with the
+			// VO2max known it sets the %VO2max (and so the fuel share),
+			// as a paced stage's does. A %VO2max given is kept.
+			s.pct, _ = pacePct(p.body, r)
+		}
 		// keep sorted by start
 		i := len(p.sessions)
 		p.sessions = append(p.sessions, s)

@@ -56,7 +56,7 @@ func (p *planner) buildDay(dp *dayPlan) Day {
 	sess := p.sessionsOn(d.Date)
 	var exKcal float64
 	for _, s := range sess {
-		exKcal += sessionKcalPerH(p.body, s.modality, s.pct) * s.durMin / 60
+		exKcal += s.kcalPerH(p.body) * s.durMin / 60
 	}
 	exKcal += p.eventKcalOn(&d)
 	exKcal = math.Round(exKcal)

@@ -46,7 +46,7 @@ func (p *planner) exercises(from, to int64) []exercise {
 		if en <= from || st >= to || s.durMin <= 0 {
 			continue
 		}
-		use := sessionKcalPerH(p.body, s.modality, s.pct) * ChoShare(s.pct) / gAtwaterCho.Min
+		use := s.kcalPerH(p.body) * ChoShare(s.pct) / gAtwaterCho.Min
 		out = append(out, exercise{start: st, end: en, choUseGPerH: use, cover: coverShare(s.pct), intakeGPerH: p.sessionRate(s),
 			recruit: recruitShare(s.pct)})
 	}
@@ -103,7 +103,7 @@ func (p *planner) usualIntakes(days []Day, until int64) []intake {
 		ud.ChoG = math.Round(ud.ChoGPerKg * p.body.MassKg)
 		var exKcal float64
 		for _, s := range sess {
-			exKcal += sessionKcalPerH(p.body, s.modality, s.pct) * s.durMin / 60
+			exKcal += s.kcalPerH(p.body) * s.durMin / 60
 		}
 		macros(&ud, p.body.MassKg, p.body.FFMKg, exKcal, false)
 		p.raiseForEnergy(&ud, exKcal, false)

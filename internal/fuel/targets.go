@@ -109,7 +109,19 @@ type sessionInfo struct {
 	durMin   float64
 	modality string
 	pct      float64
-	trainLow bool // kept deliberately unfuelled
+	trainLow bool     // kept deliberately unfuelled
+	powerW   *float64 // recorded mean power, nil when none
+}
+
+// kcalPerH is a session's energy rate: from its mean power when it is a
+// cycling session with one (mechanical work at the gross efficiency of
+// the guideline table, as for a cycling event), otherwise from VO2max or
+// METs at its intensity.
+func (s sessionInfo) kcalPerH(b Body) float64 {
+	if r, _, ok := paceKcalPerH(b, s.modality, nil, s.powerW, s.durMin); ok {
+		return r
+	}
+	return sessionKcalPerH(b, s.modality, s.pct)
 }
 
 // macros fills protein, fat and energy for a day's carbohydrate. Protein is

@@ -87,6 +87,10 @@ type TrainingSession struct {
 	Intensity   string  `json:"intensity,omitempty"`
 	// TrainLow marks a session the dietitian keeps deliberately unfuelled.
 	TrainLow bool `json:"train_low,omitempty"`
+	// AveragePowerW is the session's recorded mean power. For a cycling
+	// session it sets the energy from mechanical work and efficiency, as
+	// for a cycling event; other modalities keep their own model.
+	AveragePowerW *float64 `json:"average_power_w,omitempty" validate:"omitempty,gt=0,lte=2000"`
 }
 
 // DayOverride is a dietitian's change to one day's targets.
