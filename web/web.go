@@ -8,6 +8,7 @@ import (
 	"embed"
 	"encoding/json"
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -277,4 +278,23 @@ func AuditText(a store.AuditEntry) string {
 		return verb + " " + noun
 	}
 	return verb + " " + noun + " (" + what + ")"
+}
+
+// IntUnit formats an optional whole number with its unit: "152 beats/min", or "—".
+func IntUnit(n *int, unit string) string {
+	if n == nil {
+		return "—"
+	}
+	return strconv.Itoa(*n) + " " + unit
+}
+
+// recordsHeartRate tells whether any of the sessions recorded an average
+// heart rate, so the training list shows the column only when it says something.
+func recordsHeartRate(ts []store.TrainingSession) bool {
+	return slices.ContainsFunc(ts, func(t store.TrainingSession) bool { return t.AvgHeartRate != nil })
+}
+
+// recordsPower tells whether any of the sessions recorded an average power.
+func recordsPower(ts []store.TrainingSession) bool {
+	return slices.ContainsFunc(ts, func(t store.TrainingSession) bool { return t.AvgPowerW != nil })
 }

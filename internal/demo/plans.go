@@ -93,7 +93,7 @@ func (d demoPlans) training(clientID int64, from, to time.Time) ([]fuel.Training
 	out := make([]fuel.TrainingSession, 0, len(ts))
 	for _, t := range ts {
 		out = append(out, fuel.TrainingSession{Date: t.OnDate.Format(time.DateOnly), Start: t.StartTime,
-			DurationMin: float64(t.DurationMin), Modality: t.Modality, Intensity: t.FuelIntensity()})
+			DurationMin: float64(t.DurationMin), Modality: t.Modality, Intensity: t.FuelIntensity(), AveragePowerW: t.FuelPowerW()})
 	}
 	return out, nil
 }

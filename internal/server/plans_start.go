@@ -442,7 +442,8 @@ func buildRequest(pi planInputs) (fuel.Request, error) {
 	for _, t := range pi.training {
 		modality := t.Modality
 		req.Training = append(req.Training, fuel.TrainingSession{Date: web.ISODate(t.OnDate), Start: t.StartTime,
-			DurationMin: float64(t.DurationMin), Modality: modality, Intensity: t.FuelIntensity(), TrainLow: t.TrainLow})
+			DurationMin: float64(t.DurationMin), Modality: modality, Intensity: t.FuelIntensity(), TrainLow: t.TrainLow,
+			AveragePowerW: t.FuelPowerW()})
 	}
 	return req, nil
 }

@@ -175,6 +175,8 @@ type trainingForm struct {
 	Status        string    `form:"status" label:"Status" validate:"required,oneof=planned done" msg:"Choose planned or done."`
 	Notes         string    `form:"notes" label:"Notes" validate:"max=2000"`
 	TrainLow      bool      `form:"train_low" label:"Train low"`
+	AvgHeartRate  *int      `form:"avg_heart_rate" label:"Average heart rate" unit:"beats/min" validate:"omitempty,gte=30,lte=250"`
+	AvgPowerW     *int      `form:"avg_power_w" label:"Average power" unit:"W" validate:"omitempty,gte=1,lte=2000"`
 }
 
 func (in *trainingForm) check(f forms.Form, today time.Time) {
@@ -219,6 +221,7 @@ func (in *trainingForm) apply(t *store.TrainingSession) {
 	t.Status = in.Status
 	t.Notes = in.Notes
 	t.TrainLow = in.TrainLow
+	t.AvgHeartRate, t.AvgPowerW = in.AvgHeartRate, in.AvgPowerW
 }
 
 func trainingValues(t store.TrainingSession) url.Values {
@@ -243,6 +246,12 @@ func trainingValues(t store.TrainingSession) url.Values {
 	v.Set("notes", t.Notes)
 	if t.TrainLow {
 		v.Set("train_low", "on")
+	}
+	if t.AvgHeartRate != nil {
+		v.Set("avg_heart_rate", strconv.Itoa(*t.AvgHeartRate))
+	}
+	if t.AvgPowerW != nil {
+		v.Set("avg_power_w", strconv.Itoa(*t.AvgPowerW))
 	}
 	return v
 }

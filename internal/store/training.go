@@ -68,8 +68,12 @@ type TrainingSession struct {
 	Status         string
 	Notes          string
 	// TrainLow marks a session the dietitian keeps deliberately unfuelled.
-	TrainLow  bool
-	CreatedAt time.Time
+	TrainLow bool
+	// AvgHeartRate (beats/min) and AvgPowerW (W) are the session's recorded
+	// means, from a watch or bike computer file or typed; nil when none.
+	AvgHeartRate *int
+	AvgPowerW    *int
+	CreatedAt    time.Time
 }
 
 // IntensityText describes the intensity for display ("RPE 7", "tempo zone", "75% VO2max").
@@ -114,13 +118,25 @@ func (t TrainingSession) FuelIntensity() string {
 	return ""
 }
 
+// FuelPowerW is the recorded mean power as the fuel engine's request
+// takes it, nil when none was recorded.
+func (t TrainingSession) FuelPowerW() *float64 {
+	if t.AvgPowerW == nil {
+		return nil
+	}
+	w := float64(*t.AvgPowerW)
+	return &w
+}
+
 const trainingCols = `id, client_id, on_date, coalesce(to_char(start_time, 'HH24:MI'), ''), modality, duration_min,
-	intensity_kind, intensity_value::float8, coalesce(intensity_zone, ''), distance_km::float8, status, notes, created_at, train_low`
+	intensity_kind, intensity_value::float8, coalesce(intensity_zone, ''), distance_km::float8, status, notes, created_at, train_low,
+	avg_heart_rate, avg_power_w`
 
 func scanTraining(row pgx.Row) (TrainingSession, error) {
 	var t TrainingSession
 	err := row.Scan(&t.ID, &t.ClientID, &t.OnDate, &t.StartTime, &t.Modality, &t.DurationMin,
-		&t.IntensityKind, &t.IntensityValue, &t.IntensityZone, &t.DistanceKm, &t.Status, &t.Notes, &t.CreatedAt, &t.TrainLow)
+		&t.IntensityKind, &t.IntensityValue, &t.IntensityZone, &t.DistanceKm, &t.Status, &t.Notes, &t.CreatedAt, &t.TrainLow,
+		&t.AvgHeartRate, &t.AvgPowerW)
 	return t, notFound(err)
 }
 
@@ -155,7 +171,7 @@ func trainingArgs(t *TrainingSession) []any {
 	if t.IntensityKind == IntensityZone {
 		zone = &t.IntensityZone
 	}
-	return []any{t.ClientID, t.OnDate, t.StartTime, t.Modality, t.DurationMin, t.IntensityKind, t.IntensityValue, zone, t.DistanceKm, t.Status, t.Notes, t.TrainLow}
+	return []any{t.ClientID, t.OnDate, t.StartTime, t.Modality, t.DurationMin, t.IntensityKind, t.IntensityValue, zone, t.DistanceKm, t.Status, t.Notes, t.TrainLow, t.AvgHeartRate, t.AvgPowerW}
 }
 
 func trainingDetail(t *TrainingSession) map[string]any {
@@ -167,8 +183,8 @@ func trainingDetail(t *TrainingSession) map[string]any {
 func (s *Store) AddTraining(ctx context.Context, actor Actor, t *TrainingSession) error {
 	return s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := tx.QueryRow(ctx, `INSERT INTO training_sessions (client_id, on_date, start_time, modality, duration_min,
-			intensity_kind, intensity_value, intensity_zone, distance_km, status, notes, train_low)
-			VALUES ($1, $2, NULLIF($3, '')::time, $4, $5, $6, $7, $8, $9, $10, $11, $12) RETURNING id, created_at`,
+			intensity_kind, intensity_value, intensity_zone, distance_km, status, notes, train_low, avg_heart_rate, avg_power_w)
+			VALUES ($1, $2, NULLIF($3, '')::time, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14) RETURNING id, created_at`,
 			trainingArgs(t)...).Scan(&t.ID, &t.CreatedAt); err != nil {
 			return err
 		}
@@ -181,8 +197,9 @@ func (s *Store) UpdateTraining(ctx context.Context, actor Actor, t *TrainingSess
 	return s.inTx(ctx, func(tx pgx.Tx) error {
 		args := append(trainingArgs(t), t.ID)
 		if err := execOne(ctx, tx, `UPDATE training_sessions SET on_date = $2, start_time = NULLIF($3, '')::time, modality = $4,
-			duration_min = $5, intensity_kind = $6, intensity_value = $7, intensity_zone = $8, distance_km = $9, status = $10, notes = $11, train_low = $12
-			WHERE client_id = $1 AND id = $13`, args...); err != nil {
+			duration_min = $5, intensity_kind = $6, intensity_value = $7, intensity_zone = $8, distance_km = $9, status = $10, notes = $11, train_low = $12,
+			avg_heart_rate = $13, avg_power_w = $14
+			WHERE client_id = $1 AND id = $15`, args...); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "update", "training", t.ID, trainingDetail(t))
