@@ -93,9 +93,14 @@ func (s *Server) newPlanPage(w http.ResponseWriter, r *http.Request) {
 	} else if e := nextEvent(events, s.Now()); e != nil {
 		v.Set("event_id", web.ID(e.ID))
 	}
+	// The athlete's zone: their next event's, else their latest event's
+	// (a repletion plan after the season's race is still read there);
+	// UTC only for a client without events.
 	zone := "UTC"
 	if e := nextEvent(events, s.Now()); e != nil {
 		zone = e.TimeZone
+	} else if n := len(events); n > 0 {
+		zone = events[n-1].TimeZone
 	}
 	v.Set("time_zone", zone)
 	if id, err := strconv.ParseInt(q.Get("training"), 10, 64); err == nil {
@@ -302,6 +307,10 @@ func defaultTitle(in planStartForm, e *store.Event) string {
 	case fuel.KindRace:
 		return "Race-day fuelling for " + e.Name
 	case fuel.KindRepletion:
+		// The session end as dates are written everywhere else.
+		if end, err := time.Parse("2006-01-02T15:04", in.SessionEnd); err == nil {
+			return "Repletion, " + end.Format("Mon 2 Jan 2006 15:04")
+		}
 		return "Repletion, " + strings.Replace(in.SessionEnd, "T", " ", 1)
 	case fuel.KindWeek:
 		return "Training week from " + web.Date(*in.StartDate)
