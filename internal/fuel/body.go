@@ -116,13 +116,14 @@ func AtwaterKcal(choG, proteinG, fatG float64) float64 {
 // held between 0.05 and 0.95.
 func ChoShare(pctVO2max float64) float64 {
 	var s float64
+	p25, p65, p85 := gShare25.Min, gShare65.Min, gShare85.Min
 	switch {
-	case pctVO2max <= 25:
-		s = gShare25.Min
-	case pctVO2max <= 65:
-		s = gShare25.Min + (pctVO2max-25)*(gShare65.Min-gShare25.Min)/40
+	case pctVO2max <= p25:
+		s = gShare25.Max
+	case pctVO2max <= p65:
+		s = gShare25.Max + (pctVO2max-p25)*(gShare65.Max-gShare25.Max)/(p65-p25)
 	default:
-		s = gShare65.Min + (pctVO2max-65)*(gShare85.Min-gShare65.Min)/20
+		s = gShare65.Max + (pctVO2max-p65)*(gShare85.Max-gShare65.Max)/(p85-p65)
 	}
 	return math.Max(gShareClamp.Min, math.Min(gShareClamp.Max, s))
 }

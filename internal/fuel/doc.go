@@ -47,8 +47,9 @@
 //     sessions, 1.1 g/kg/h for the first 4 h (or until the next start) in
 //     feeds every 30 min with 0.3 g/kg protein first, then daily needs;
 //     8 h or more, daily targets. week: N days of training-load targets.
-//     The in-event g/h is the least multiple of 5 that keeps the stores
-//     from running out, held inside the band for the duration (none to
+//     The in-event g/h is the least multiple of 5 g/h (during.rate-step)
+//     that keeps the stores from running out, held inside the band for
+//     the duration (none to
 //     45 min, small amounts to 75 min, 30–60 g/h to 2.5 h, 60–90 g/h
 //     beyond) and never above 90 g/h unless the dietitian overrides it.
 //     Day and feed overrides are kept, marked, and checked like any value;

@@ -106,9 +106,9 @@ var coreGuidelines = []Guideline{
 	{"weir", "kcal = 3.941·VO2 + 1.106·VCO2 (litres)", 3.941, 1.106, "kcal/L", SrcWeir},
 	{"frayn.cho", "carbohydrate g/min = 4.55·VCO2 − 3.21·VO2", 4.55, 3.21, "g/L", SrcFrayn},
 	{"frayn.fat", "fat g/min = 1.67·VO2 − 1.67·VCO2", 1.67, 1.67, "g/L", SrcFrayn},
-	{"share.25", "carbohydrate share of energy at ≈ 25% VO2max: small", 0.10, 0.10, "share", SrcRomijn},
-	{"share.65", "carbohydrate share of energy at ≈ 65% VO2max: about half", 0.50, 0.50, "share", SrcRomijn},
-	{"share.85", "carbohydrate share of energy at ≈ 85% VO2max: about three quarters", 0.75, 0.75, "share", SrcRomijn},
+	{"share.25", "carbohydrate share of energy (Max) at ≈ 25% VO2max (Min): small", 25, 0.10, "% VO2max; share", SrcRomijn},
+	{"share.65", "carbohydrate share of energy (Max) at ≈ 65% VO2max (Min): about half", 65, 0.50, "% VO2max; share", SrcRomijn},
+	{"share.85", "carbohydrate share of energy (Max) at ≈ 85% VO2max (Min): about three quarters", 85, 0.75, "% VO2max; share", SrcRomijn},
 	{"atwater.cho", "carbohydrate energy", 4, 4, "kcal/g", SrcAtwater},
 	{"atwater.protein", "protein energy", 4, 4, "kcal/g", SrcAtwater},
 	{"atwater.fat", "fat energy", 9, 9, "kcal/g", SrcAtwater},
@@ -202,6 +202,10 @@ var coreGuidelines = []Guideline{
 	{"model.intensity.rpe", "a session logged as rpe:N is at 40 + 5·N % VO2max", 40, 5, "% VO2max; per RPE point", SrcModel},
 	{"model.session-start", "start of a session logged without a time", 16, 16, "h (16:00)", SrcModel},
 	{"pre-event.default-hours", "pre-event meal time before the start, when the clock allows", 3, 3, "h", SrcModel},
+	{"during.rate-step", "the in-event g/h is the least multiple of this step that keeps the stores from running out", 5, 5, "g/h", SrcModel},
+	{"model.session-match", "a logged session is the one a repletion plan follows when it ends within this many minutes of the given session end", 15, 15, "min", SrcModel},
+	{"model.rest-meal", "a day's remaining food, when no ordinary occasion fits, goes Min min after the event's finish that day (labelled dinner from Max o'clock, else lunch)", 90, 17, "min; h (clock)", SrcModel},
+	{"model.rest-meal-lunch", "a day's remaining food, when no ordinary occasion fits and no finish leaves room, goes at lunch time", 12.5, 12.5, "h (12:30)", SrcModel},
 	{"model.run-fraction", "share of a session's work drawn from the working muscle's glycogen vs. blood glucose from the liver", 0.8, 0.8, "share", SrcModel},
 }
 
@@ -307,6 +311,10 @@ var (
 	gRecruit       = guideline("model.fibre-recruitment")
 	gModelSupply   = guideline("model.synthesis-supply")
 	gModelMuscleFr = guideline("model.run-fraction")
+	gRateStep      = guideline("during.rate-step")
+	gSessionMatch  = guideline("model.session-match")
+	gRestMeal      = guideline("model.rest-meal")
+	gRestMealLunch = guideline("model.rest-meal-lunch")
 
 	gWorkSwim        = guideline("model.working.swim")
 	gWorkRow         = guideline("model.working.row")

@@ -102,8 +102,8 @@ func TestGuidelineValuesMatchReferences(t *testing.T) {
 		{"frayn.cho", 4.55, 3.21, "Frayn KN. J Appl Physiol 1983;55:628–634"},
 		{"frayn.fat", 1.67, 1.67, "Frayn KN. J Appl Physiol 1983;55:628–634"},
 		// Romijn JA et al. 1993 (from memory, shape only)
-		{"share.65", 0.50, 0.50, "Romijn JA et al. Am J Physiol 1993;265:E380–E391 (from memory, shape only)"},
-		{"share.85", 0.75, 0.75, "Romijn JA et al. Am J Physiol 1993;265:E380–E391 (from memory, shape only)"},
+		{"share.65", 65, 0.50, "Romijn JA et al. Am J Physiol 1993;265:E380–E391 (from memory, shape only)"},
+		{"share.85", 85, 0.75, "Romijn JA et al. Am J Physiol 1993;265:E380–E391 (from memory, shape only)"},
 		// Atwater general factors (FAO 2003 food energy report)
 		{"atwater.cho", 4, 4, "Atwater general factors (FAO 2003 food energy report)"},
 		{"atwater.protein", 4, 4, "Atwater general factors (FAO 2003 food energy report)"},

@@ -88,7 +88,7 @@ func (p *planner) repletion() {
 		}
 	}
 	// Stores at the session's end: when the training log holds the session
-	// (ending within 15 min of session_end), the simulation runs that day
+	// (ending within model.session-match of session_end), the simulation runs that day
 	// from midnight through it on the day's feeds; otherwise the working
 	// muscle is taken as near the top of the depleted band, as after a
 	// demanding session.
@@ -99,7 +99,8 @@ func (p *planner) repletion() {
 	s = s.since(0)
 	for _, ses := range p.sessions {
 		sEndAt := ses.start.Add(time.Duration(ses.durMin * float64(time.Minute)))
-		if d := sEndAt.Sub(end); d < -15*time.Minute || d > 15*time.Minute || ses.durMin <= 0 {
+		tol := time.Duration(gSessionMatch.Min * float64(time.Minute))
+		if d := sEndAt.Sub(end); d < -tol || d > tol || ses.durMin <= 0 {
 			continue
 		}
 		dayStart := midnight(ses.start, p.loc).Unix()

@@ -198,7 +198,7 @@ func (p *planner) eventSimulation(first, loadStart, evDay time.Time, loading boo
 	}
 }
 
-// neededRate is the in-event g/h: the least (in steps of 5 g/h) that keeps
+// neededRate is the in-event g/h: the least (in steps of during.rate-step) that keeps
 // the stores from running out before the finish, held inside the band for
 // the event's duration (never above 90 g/h).
 func (p *planner) neededRate(s simState) float64 {
@@ -218,20 +218,21 @@ func (p *planner) neededRate(s simState) float64 {
 	if lasts(0) {
 		return math.Max(floor, lo)
 	}
-	// binary search over multiples of 5 g/h in [lo, hi]
-	a, b := int(lo/5), int(hi/5)
-	if !lasts(float64(b) * 5) {
+	// binary search over multiples of the step in [lo, hi]
+	step := gRateStep.Min
+	a, b := int(lo/step), int(hi/step)
+	if !lasts(float64(b) * step) {
 		return hi
 	}
 	for a < b {
 		m := (a + b) / 2
-		if lasts(float64(m) * 5) {
+		if lasts(float64(m) * step) {
 			b = m
 		} else {
 			a = m + 1
 		}
 	}
-	return math.Max(floor, float64(a)*5)
+	return math.Max(floor, float64(a)*step)
 }
 
 // runsOut turns hours into the event into minutes and km (null if never).

@@ -242,15 +242,15 @@ func (p *planner) dayIsItsFeeds(d *Day, feeds []Feed) {
 func (p *planner) restMealAt(dp *dayPlan) (time.Time, string) {
 	next := dp.date.AddDate(0, 0, 1)
 	for _, end := range p.eventEnds() {
-		at := end.Add(90 * time.Minute)
+		at := end.Add(time.Duration(gRestMeal.Min * float64(time.Minute)))
 		if !end.Before(dp.date) && at.Before(next) {
-			if at.In(p.loc).Hour() >= 17 {
+			if float64(at.In(p.loc).Hour()) >= gRestMeal.Max {
 				return at, "dinner"
 			}
 			return at, "lunch"
 		}
 	}
-	return clockOn(dp.date, 12*60+30), "lunch"
+	return clockOn(dp.date, int(math.Round(gRestMealLunch.Min*60))), "lunch"
 }
 
 // eventEnds lists the finishes of the event (each stage's for a stage race).
