@@ -304,7 +304,7 @@ func FeedFoodPage(v FeedFoodView) templ.Component {
 				return templ_7745c5c3_Err
 			}
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 26, "<fieldset><legend>Foods from the foods list</legend><p class=\"hint\">Pick a food and give the amount in grams (drinks: 1 g is about 1 ml). Leave a line’s food empty to skip it.</p>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 26, "<fieldset><legend>Foods from the foods list</legend><p class=\"hint\">Pick a food and give the amount as eaten: grams, ml for drinks, grams cooked for rice, dals and other foods eaten cooked (the list says which). Leave a line’s food empty to skip it.</p>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
@@ -317,7 +317,7 @@ func FeedFoodPage(v FeedFoodView) templ.Component {
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}
-			templ_7745c5c3_Err = Input(v.Form, row.Grams, "Amount of food "+Itoa(row.N)+" (g)", "text", "", templ.Attributes{"inputmode": "decimal", "class": "short"}).Render(ctx, templ_7745c5c3_Buffer)
+			templ_7745c5c3_Err = Input(v.Form, row.Grams, "Amount of food "+Itoa(row.N), "text", "", templ.Attributes{"inputmode": "decimal", "class": "short"}).Render(ctx, templ_7745c5c3_Buffer)
 			if templ_7745c5c3_Err != nil {
 				return templ_7745c5c3_Err
 			}

@@ -51,9 +51,10 @@ func CarbohydrateFood(f Food) bool {
 	return total > 0 && cho >= 0.25*total
 }
 
-// IsLowFibre tells whether a food is low in fibre for the carbohydrate it gives.
+// IsLowFibre tells whether a food is low in fibre: little for the
+// carbohydrate it gives, and little in itself (see LowFibreMaxPer100).
 func IsLowFibre(f Food) bool {
-	return f.ChoPer100 > 0 && f.FibrePer100 <= LowFibreRatio*f.ChoPer100
+	return f.ChoPer100 > 0 && f.FibrePer100 <= LowFibreRatio*f.ChoPer100 && f.FibrePer100 <= LowFibreMaxPer100
 }
 
 // candidates filters and ranks the foods list for one need.
@@ -92,7 +93,7 @@ func candidates(foods []Food, need Need) []Food {
 	if len(pool) == 0 {
 		pool = avoided
 	}
-	if need.LowFibre && lowFibreCount >= 3 {
+	if need.LowFibre && !need.anyFibre && lowFibreCount >= 3 {
 		kept := pool[:0:0]
 		for _, f := range pool {
 			if IsLowFibre(f) {

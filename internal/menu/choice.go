@@ -31,22 +31,56 @@ const (
 
 // ChoiceLine is one line of a dietitian's food choice. A food line names a
 // food of the list (FoodID, its name as it was when chosen) and an amount
-// in grams; a free line (Free) is the dietitian's own words with the
-// carbohydrate they give it.
+// as eaten, in Unit; a free line (Free) is the dietitian's own words with
+// the carbohydrate they give it.
 type ChoiceLine struct {
 	Free     bool
 	FoodID   int64 // 0 for a free line, or when the food has since been deleted
 	Name     string
-	Grams    float64 // food lines only
+	Grams    float64 // food lines only: the amount as eaten, in Unit
+	Unit     string  // UnitGrams, UnitMl or UnitCooked
 	ChoG     float64
 	ProteinG float64
 }
 
-// FoodLine makes the line for an amount of a food: its carbohydrate and
-// protein from the food's per-100 g figures.
-func FoodLine(f Food, grams float64) ChoiceLine {
-	return ChoiceLine{FoodID: f.ID, Name: f.Name, Grams: grams,
-		ChoG: round1(f.ChoPer100 * grams / 100), ProteinG: round1(f.ProtPer100 * grams / 100)}
+// Units of a food line's amount: as eaten, so that a dietitian writes
+// "150 g cooked" of rice and "500 ml" of a drink as they would by hand.
+const (
+	UnitGrams  = "g"
+	UnitMl     = "ml"       // a drink, 1 g taken as 1 ml
+	UnitCooked = "g cooked" // a food with a CookedYield
+)
+
+// UnitOf is the unit a food's amount is given in.
+func UnitOf(f Food) string {
+	switch {
+	case f.Liquid:
+		return UnitMl
+	case f.CookedYield > 0:
+		return UnitCooked
+	}
+	return UnitGrams
+}
+
+// FoodLine makes the line for an amount of a food as eaten (in UnitOf(f)):
+// its carbohydrate and protein from the food's per-100 g figures, as
+// weighed in the table (the cooked weight over the food's cooked yield).
+func FoodLine(f Food, amount float64) ChoiceLine {
+	weighed := amount
+	if f.CookedYield > 0 && !f.Liquid {
+		weighed = amount / f.CookedYield
+	}
+	return ChoiceLine{FoodID: f.ID, Name: f.Name, Grams: amount, Unit: UnitOf(f),
+		ChoG: round1(f.ChoPer100 * weighed / 100), ProteinG: round1(f.ProtPer100 * weighed / 100)}
+}
+
+// AsEaten is an amount as weighed in the table turned into the amount as
+// eaten, in UnitOf(f), rounded to whole grams (or ml).
+func AsEaten(f Food, weighed float64) float64 {
+	if f.CookedYield > 0 && !f.Liquid {
+		return math.Round(weighed * f.CookedYield)
+	}
+	return math.Round(weighed)
 }
 
 func round1(x float64) float64 { return math.Round(x*10) / 10 }
@@ -58,7 +92,11 @@ func ChoiceText(lines []ChoiceLine) string {
 		if l.Free {
 			parts = append(parts, fmt.Sprintf("%s (%s g carbohydrate)", l.Name, trimNum(l.ChoG)))
 		} else {
-			parts = append(parts, fmt.Sprintf("%s: %s g", l.Name, trimNum(l.Grams)))
+			unit := l.Unit
+			if unit == "" {
+				unit = UnitGrams
+			}
+			parts = append(parts, fmt.Sprintf("%s: %s %s", l.Name, trimNum(l.Grams), unit))
 		}
 	}
 	return ChoicePrefix + strings.Join(parts, "; ")

@@ -15,14 +15,21 @@ import (
 // Food is one row of the foods list as the suggester needs it. Figures are per
 // 100 g of the food as eaten or as weighed.
 type Food struct {
-	ID          int64
-	Name        string
+	ID   int64
+	Name string // the everyday name
+	// SourceName is the composition table's name ("Rice, raw, milled"),
+	// empty for the practice's own products.
+	SourceName  string
 	ChoPer100   float64
 	ProtPer100  float64
 	FatPer100   float64
 	FibrePer100 float64
 	PortionName string
 	PortionG    float64
+	// CookedYield is the grams as eaten per gram as weighed, for a food
+	// eaten cooked but listed (and weighed in PortionG) dry or raw; 0 for a
+	// food eaten as weighed.
+	CookedYield float64
 	Liquid      bool
 	Portable    bool
 	// Practice marks the practice's own products, entered from the label
@@ -73,6 +80,9 @@ type Need struct {
 	// one of its foods is not a drink (a 600 ml shake read badly as a
 	// dinner), and gels are left out.
 	Meal bool
+	// anyFibre: a LowFibre need whose low-fibre foods alone had no fit
+	// tries the whole list.
+	anyFibre bool
 	// afterExercise marks the drinks-and-portables first try of a
 	// PreferOnTheMove need: on the move, but not during exercise.
 	afterExercise bool
@@ -99,14 +109,30 @@ type Suggestion struct {
 	ToleranceG float64 // the sum lies within TargetG ± ToleranceG
 }
 
-// Text is a one-line description such as
-// "Banana, ripe, robusta: 2 × 1 medium, peeled (100 g) = 200 g + …".
+// Text is a one-line description such as "Banana: 2 × 1 medium, peeled =
+// 200 g; White rice, boiled: 1.5 × 1 cup, cooked = about 230 g cooked (90 g
+// uncooked); Cow's milk, whole: 1 × 1 glass = 250 ml".
 func (s Suggestion) Text() string {
 	parts := make([]string, len(s.Items))
 	for i, it := range s.Items {
-		parts[i] = fmt.Sprintf("%s: %s × %s = %s g", it.Food.Name, formatPortions(it.Portions), it.Food.PortionName, formatPortions(math.Round(it.Grams)))
+		parts[i] = fmt.Sprintf("%s: %s × %s = %s", it.Food.Name, formatPortions(it.Portions), it.Food.PortionName, Amount(it.Food, it.Grams))
 	}
 	return strings.Join(parts, "; ")
+}
+
+// Amount says an amount of a food as a person measures it: ml for a drink
+// (1 g taken as 1 ml, near enough for the drinks of a plan), the cooked
+// weight (rounded to 10 g) with the weight as weighed for a food eaten
+// cooked, else grams.
+func Amount(f Food, grams float64) string {
+	g := formatPortions(math.Round(grams))
+	switch {
+	case f.Liquid:
+		return g + " ml"
+	case f.CookedYield > 0:
+		return fmt.Sprintf("about %.0f g cooked (%s g uncooked)", math.Round(grams*f.CookedYield/10)*10, g)
+	}
+	return g + " g"
 }
 
 func formatPortions(p float64) string {
@@ -129,6 +155,12 @@ const (
 	// jaggery, milk qualify; whole-wheat flour, dals and dates do not). A
 	// threshold of this project's own, chosen for its food list.
 	LowFibreRatio = 0.12
+	// LowFibreMaxPer100: and at most 3 g of fibre per 100 g as weighed in
+	// the table (dry for cereals), which keeps whole grains out: brown rice
+	// (4.4 g) and parboiled rice (3.7 g) are not low-fibre, white rice (2.8 g)
+	// is. A threshold of this project's own; low-fibre eating on loading
+	// days favours refined cereals and peeled fruit (common practice).
+	LowFibreMaxPer100 = 3.0
 	// Caps on one feed, this project's own from what an athlete can eat at
 	// one sitting: at most 4 household portions of one food (2 of a gel, whose
 	// sachets are taken with water and spaced out), at most 600 g of one
@@ -168,6 +200,12 @@ func Suggest(foods []Food, need Need) (s Suggestion, ok bool) {
 		return s, false
 	}
 	best, found := search(pool, need, s.ToleranceG)
+	if !found && need.LowFibre && !need.anyFibre {
+		// Low-fibre foods alone may not reach a large target within the
+		// caps: then the whole list, with fibre still weighed in the score.
+		need.anyFibre = true
+		best, found = search(candidates(foods, need), need, s.ToleranceG)
+	}
 	if !found && len(need.Avoid) > 0 {
 		// The avoided foods may be the only ones that fit: allow them.
 		need.Avoid = nil
@@ -427,7 +465,11 @@ func search(pool []Food, need Need, tol float64) ([]Item, bool) {
 // suggestion ("rice and rice") read badly, so a combination takes at most
 // one of each. A name without a comma (a practice's product) is its own kind.
 func kind(f Food) string {
-	k, _, _ := strings.Cut(f.Name, ",")
+	name := f.Name
+	if f.SourceName != "" {
+		name = f.SourceName // "Rice" for white, brown and parboiled alike
+	}
+	k, _, _ := strings.Cut(name, ",")
 	return strings.ToLower(strings.TrimSpace(k))
 }
 

@@ -129,7 +129,7 @@ func choiceValues(lines []menu.ChoiceLine, sugg menu.Suggestion, stored string) 
 	v := url.Values{}
 	if len(lines) == 0 && len(sugg.Items) > 0 && sugg.Text() == stored {
 		for _, it := range sugg.Items {
-			lines = append(lines, menu.ChoiceLine{FoodID: it.Food.ID, Grams: math.Round(it.Grams)})
+			lines = append(lines, menu.ChoiceLine{FoodID: it.Food.ID, Grams: menu.AsEaten(it.Food, it.Grams)})
 		}
 	}
 	nf, nt := 0, 0
@@ -312,7 +312,7 @@ func (s *Server) renderFeedFood(w http.ResponseWriter, r *http.Request, status i
 	}
 	for _, fd := range foods {
 		fv.Foods = append(fv.Foods, web.Option{Value: strconv.FormatInt(fd.ID, 10),
-			Label: fmt.Sprintf("%s — %s g carbohydrate per 100 g; %s", fd.Name, web.Num(fd.ChoPer100, 1), fd.PortionName)})
+			Label: foodOptionLabel(fd)})
 	}
 	for i := range menu.MaxChoiceLines {
 		fv.FoodRows = append(fv.FoodRows, web.FeedFoodRow{N: i + 1, Food: choiceFoodName(i), Grams: choiceGramsName(i)})
@@ -441,4 +441,17 @@ func (s *Server) placeFoodChoices(ctx context.Context, pv *web.PlanView, c store
 		}
 	}
 	return nil
+}
+
+// foodOptionLabel tells a food in the choice form's list with what its
+// amount is given in: grams, ml, or grams cooked.
+func foodOptionLabel(f menu.Food) string {
+	per := fmt.Sprintf("%s g carbohydrate per 100 g", web.Num(f.ChoPer100, 1))
+	switch menu.UnitOf(f) {
+	case menu.UnitMl:
+		per = fmt.Sprintf("in ml; %s g carbohydrate per 100 ml", web.Num(f.ChoPer100, 1))
+	case menu.UnitCooked:
+		per = fmt.Sprintf("in g cooked; %s g carbohydrate per 100 g cooked", web.Num(f.ChoPer100/f.CookedYield, 1))
+	}
+	return f.Name + " — " + per + "; " + f.PortionName
 }

@@ -15,7 +15,7 @@ import (
 
 // TestBrowserSwapFoodSeenOnSheet: in Chromium, a dietitian opens a draft
 // loading plan, follows a feed's "Change food" link, swaps the suggested
-// food for raw milled rice in grams of their own and adds a free line,
+// food for 80 g of boiled white rice and adds a free line,
 // saves, sees the choice in the feed's row, and then finds it in the plan
 // sheet's text (the PDF fetched in the same signed-in session).
 func TestBrowserSwapFoodSeenOnSheet(t *testing.T) {
@@ -28,7 +28,7 @@ func TestBrowserSwapFoodSeenOnSheet(t *testing.T) {
 	v := latestVersion(t, a, pid)
 	day := v.Result.Days[1]
 	key := menu.FeedKey("day", day.Date, 1)
-	rice := foodID(t, a, "Rice, raw, milled")
+	rice := foodID(t, a, "A015")
 	planURL := a.srv.URL + "/clients/" + itoa64(cid) + "/plans/" + itoa64(pid) + "/versions/1"
 	row := `tr[data-feed="` + key + `"]`
 
@@ -65,7 +65,7 @@ func TestBrowserSwapFoodSeenOnSheet(t *testing.T) {
 		t.Fatalf("swap the food and save: %v", err)
 	}
 	shot(t, ctx, "feed-food-saved")
-	want := "Dietitian’s choice: Rice, raw, milled: 80 g; banana and a rice cake (35 g carbohydrate)"
+	want := "Dietitian’s choice: White rice, boiled: 80 g cooked; banana and a rice cake (35 g carbohydrate)"
 	if got := text(t, ctx, chromedp.CSS(row)); !strings.Contains(got, want) {
 		t.Fatalf("the feed's row shows %q, want %q", got, want)
 	}
@@ -85,7 +85,7 @@ func TestBrowserSwapFoodSeenOnSheet(t *testing.T) {
 		t.Skip("pdftotext (poppler-utils) not installed")
 	}
 	flat := strings.Join(strings.Fields(sheet), " ")
-	for _, part := range []string{"Dietitian’s choice: Rice, raw, milled: 80 g", "banana and a rice cake (35 g carbohydrate)"} {
+	for _, part := range []string{"Dietitian’s choice: White rice, boiled: 80 g cooked", "banana and a rice cake (35 g carbohydrate)"} {
 		if !strings.Contains(flat, part) {
 			t.Errorf("the sheet lacks %q:\n%s", part, sheet)
 		}

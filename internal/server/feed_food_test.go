@@ -14,12 +14,12 @@ import (
 	"larder/internal/store"
 )
 
-// foodID finds a food of the seeded list by name.
-func foodID(t *testing.T, a *app, name string) int64 {
+// foodID finds a food of the seeded list by its composition-table code.
+func foodID(t *testing.T, a *app, code string) int64 {
 	t.Helper()
 	var id int64
-	if err := a.st.Pool.QueryRow(context.Background(), `SELECT id FROM foods WHERE name = $1 AND archived_at IS NULL`, name).Scan(&id); err != nil {
-		t.Fatalf("food %q: %v", name, err)
+	if err := a.st.Pool.QueryRow(context.Background(), `SELECT id FROM foods WHERE source = $1 AND archived_at IS NULL ORDER BY id LIMIT 1`, code).Scan(&id); err != nil {
+		t.Fatalf("food %s: %v", code, err)
 	}
 	return id
 }
@@ -30,7 +30,7 @@ func feedFoodPath(clientID, planID int64, version int, date string, index int) s
 		"/feeds/day/" + date + "/" + strconv.Itoa(index) + "/food"
 }
 
-// A dietitian swaps a feed's food for 150 g of raw milled rice and adds a
+// A dietitian swaps a feed's food for 150 g of banana and adds a
 // line in their own words; the choice is stored with the version, shown in
 // the suggestion's place on the plan page and the sheet, checked against the
 // feed's grams, kept through a save of the draft, through publishing and
@@ -54,13 +54,13 @@ func TestFeedFoodSwapAndFreeLineKeptAcrossVersions(t *testing.T) {
 	page.mustContain(t, `href="`+path+`"`, "Change food")
 	b.get(path).mustContain(t, "Suggested from the foods list:", html.EscapeString(before[key]), `name="food_0"`, `name="free_0"`)
 
-	rice := foodID(t, a, "Rice, raw, milled")
+	banana := foodID(t, a, "E012")
 	b.post(path, url.Values{"revision": {strconv.Itoa(v1.Revision)}, "action": {"save"},
-		"food_0": {itoa64(rice)}, "grams_0": {"150"}, "free_0": {"banana and a rice cake"}, "freecho_0": {"30"}}).
+		"food_0": {itoa64(banana)}, "grams_0": {"150"}, "free_0": {"toast and honey"}, "freecho_0": {"30"}}).
 		mustRedirect(t, base+"/versions/1")
-	// 150 g of raw milled rice gives 117.4 g carbohydrate (IFCT 2017 A015:
-	// 78.24 g per 100 g), and the free line 30 g.
-	want := "Dietitian’s choice: Rice, raw, milled: 150 g; banana and a rice cake (30 g carbohydrate)"
+	// 150 g of banana gives 35.4 g carbohydrate (IFCT 2017 E012: 23.63 g
+	// per 100 g), and the free line 30 g.
+	want := "Dietitian’s choice: Banana: 150 g; toast and honey (30 g carbohydrate)"
 	check := func(versionID int64, when string) {
 		t.Helper()
 		got, err := a.st.FeedSuggestions(ctx, versionID)
@@ -75,17 +75,17 @@ func TestFeedFoodSwapAndFreeLineKeptAcrossVersions(t *testing.T) {
 			t.Fatal(err)
 		}
 		lines := choices[key]
-		if len(lines) != 2 || lines[0].FoodID != rice || lines[0].Grams != 150 || lines[0].ChoG != 117.4 ||
-			!lines[1].Free || lines[1].Name != "banana and a rice cake" || lines[1].ChoG != 30 {
+		if len(lines) != 2 || lines[0].FoodID != banana || lines[0].Grams != 150 || lines[0].ChoG != 35.4 || lines[0].Unit != menu.UnitGrams ||
+			!lines[1].Free || lines[1].Name != "toast and honey" || lines[1].ChoG != 30 {
 			t.Fatalf("%s: stored lines %+v", when, lines)
 		}
 	}
 	check(v1.ID, "after the save")
 	page = b.get(base + "/versions/1")
 	page.mustContain(t, html.EscapeString(want))
-	// 147.4 g against the feed's grams: said beside the feed when it is
+	// 65.4 g against the feed's grams: said beside the feed when it is
 	// more than ±10 % (or ±5 g) away.
-	if d := 147.4 - day.Feeds[0].ChoG; d > menu.Tolerance(day.Feeds[0].ChoG) {
+	if d := 65.4 - day.Feeds[0].ChoG; d > menu.Tolerance(day.Feeds[0].ChoG) {
 		page.mustContain(t, "over the feed’s")
 	} else if d < -menu.Tolerance(day.Feeds[0].ChoG) {
 		page.mustContain(t, "short of the feed’s")
@@ -102,7 +102,7 @@ func TestFeedFoodSwapAndFreeLineKeptAcrossVersions(t *testing.T) {
 		}
 		return strings.Join(strings.Fields(text), " ")
 	}
-	if text := sheetText(base + "/versions/1/sheet.pdf"); !strings.Contains(text, "Dietitian’s choice: Rice, raw, milled: 150 g") {
+	if text := sheetText(base + "/versions/1/sheet.pdf"); !strings.Contains(text, "Dietitian’s choice: Banana: 150 g") {
 		t.Errorf("the draft's sheet lacks the choice:\n%s", text)
 	}
 
@@ -121,7 +121,7 @@ func TestFeedFoodSwapAndFreeLineKeptAcrossVersions(t *testing.T) {
 	if res := b.get(path); res.status != http.StatusSeeOther {
 		t.Fatalf("food page of a published version: status %d, want a redirect", res.status)
 	}
-	if text := sheetText(base + "/sheet.pdf"); !strings.Contains(text, "banana and a rice cake (30 g carbohydrate)") {
+	if text := sheetText(base + "/sheet.pdf"); !strings.Contains(text, "toast and honey (30 g carbohydrate)") {
 		t.Errorf("the published sheet lacks the free line:\n%s", text)
 	}
 	b.post(base+"/revise", nil).mustRedirect(t, base+"/versions/2")
@@ -155,10 +155,10 @@ func TestFeedFoodBadInput(t *testing.T) {
 	day := v.Result.Days[0]
 	key := menu.FeedKey("day", day.Date, 0)
 	path := feedFoodPath(cid, pid, 1, day.Date, 0)
-	rice := foodID(t, a, "Rice, raw, milled")
-	b.post(path, url.Values{"revision": {strconv.Itoa(v.Revision)}, "food_0": {itoa64(rice)}, "grams_0": {"100"}}).
+	rice := foodID(t, a, "A015")
+	b.post(path, url.Values{"revision": {strconv.Itoa(v.Revision)}, "food_0": {itoa64(rice)}, "grams_0": {"260"}}).
 		mustRedirect(t, "/clients/")
-	saved := "Dietitian’s choice: Rice, raw, milled: 100 g"
+	saved := "Dietitian’s choice: White rice, boiled: 260 g cooked"
 	v = latestVersion(t, a, pid)
 	rev := strconv.Itoa(v.Revision)
 
@@ -230,10 +230,10 @@ func TestFeedFoodBreakingANeedIsSaid(t *testing.T) {
 	pid := createPlan(t, b, c.ID, planForm("week", "64", "start_date", "2027-03-02"))
 	v := latestVersion(t, a, pid)
 	day := v.Result.Days[0]
-	milk := foodID(t, a, "Milk, whole, Buffalo")
+	milk := foodID(t, a, "L001")
 	b.post(feedFoodPath(c.ID, pid, 1, day.Date, 0), url.Values{"revision": {strconv.Itoa(v.Revision)}, "action": {"save"},
 		"food_0": {itoa64(milk)}, "grams_0": {"250"}}).mustRedirect(t, "/clients/")
 	b.get("/clients/"+itoa64(c.ID)+"/plans/"+itoa64(pid)+"/versions/1").
-		mustContain(t, html.EscapeString("Dietitian’s choice: Milk, whole, Buffalo: 250 g"),
-			html.EscapeString("Milk, whole, Buffalo breaks the client’s recorded dietary needs: Lactose-free."))
+		mustContain(t, html.EscapeString("Dietitian’s choice: Buffalo milk, whole: 250 ml"),
+			html.EscapeString("Buffalo milk, whole breaks the client’s recorded dietary needs: Lactose-free."))
 }

@@ -44,6 +44,8 @@ type foodForm struct {
 	Portable        bool     `form:"portable"`
 	ContainsGluten  bool     `form:"contains_gluten"`
 	Source          string   `form:"source" label:"Source" validate:"required,max=100"`
+	SourceName      string   `form:"source_name" label:"Name in the composition table" validate:"max=200"`
+	CookedYield     *float64 `form:"cooked_yield" label:"Cooked weight" unit:"g per g as weighed" validate:"omitempty,gte=1,lte=10"`
 }
 
 // decodeFood reads and checks the form; the food is ready to save only when
@@ -80,11 +82,15 @@ func decodeFood(values url.Values) (store.Food, forms.Form) {
 	if f.Has() {
 		return store.Food{}, f
 	}
+	yield := 0.0
+	if in.CookedYield != nil {
+		yield = *in.CookedYield
+	}
 	return store.Food{
 		Name: in.Name, CarbohydrateG: *in.CarbohydrateG, ProteinG: *in.ProteinG, FatG: *in.FatG, FibreG: *in.FibreG,
 		EnergyKcal: *in.EnergyKcal, PortionName: in.PortionName, PortionG: *in.PortionG,
 		Liquid: in.Liquid, Portable: in.Portable, ContainsGluten: in.ContainsGluten, Source: in.Source,
-		Facts: facts, FactsRecorded: true,
+		Facts: facts, FactsRecorded: true, SourceName: in.SourceName, CookedYield: yield,
 	}, f
 }
 
@@ -99,6 +105,10 @@ func foodValues(fd store.Food) url.Values {
 	v.Set("portion_name", fd.PortionName)
 	v.Set("portion_g", web.Num(fd.PortionG, 1))
 	v.Set("source", fd.Source)
+	v.Set("source_name", fd.SourceName)
+	if fd.CookedYield > 0 {
+		v.Set("cooked_yield", web.Num(fd.CookedYield, 2))
+	}
 	if fd.Liquid {
 		v.Set("liquid", "on")
 	}
@@ -116,19 +126,22 @@ func foodValues(fd store.Food) url.Values {
 	return v
 }
 
-// MenuFoods converts store foods to what internal/menu needs.
+// MenuFoods converts the active foods to what internal/menu needs.
 func MenuFoods(foods []store.Food) []menu.Food {
 	out := make([]menu.Food, 0, len(foods))
 	for _, f := range foods {
-		if f.Archived() {
-			continue
+		if !f.Archived() {
+			out = append(out, menuFood(f))
 		}
-		out = append(out, menu.Food{ID: f.ID, Name: f.Name, ChoPer100: f.CarbohydrateG, ProtPer100: f.ProteinG,
-			FatPer100: f.FatG, FibrePer100: f.FibreG, PortionName: f.PortionName, PortionG: f.PortionG,
-			Liquid: f.Liquid, Portable: f.Portable, Practice: f.Source == store.SourceLabel, ContainsGluten: f.ContainsGluten,
-			Facts: f.Facts, FactsRecorded: f.FactsRecorded})
 	}
 	return out
+}
+
+func menuFood(f store.Food) menu.Food {
+	return menu.Food{ID: f.ID, Name: f.Name, SourceName: f.SourceName, CookedYield: f.CookedYield, ChoPer100: f.CarbohydrateG, ProtPer100: f.ProteinG,
+		FatPer100: f.FatG, FibrePer100: f.FibreG, PortionName: f.PortionName, PortionG: f.PortionG,
+		Liquid: f.Liquid, Portable: f.Portable, Practice: f.Source == store.SourceLabel, ContainsGluten: f.ContainsGluten,
+		Facts: f.Facts, FactsRecorded: f.FactsRecorded}
 }
 
 func (s *Server) foodsPage(w http.ResponseWriter, r *http.Request) {
@@ -140,7 +153,7 @@ func (s *Server) foodsPage(w http.ResponseWriter, r *http.Request) {
 	}
 	rows := make([]web.FoodRow, len(foods))
 	for i, f := range foods {
-		rows[i] = web.FoodRow{Food: f, LowFibre: menu.IsLowFibre(menu.Food{ChoPer100: f.CarbohydrateG, FibrePer100: f.FibreG})}
+		rows[i] = web.FoodRow{Food: f, LowFibre: menu.IsLowFibre(menuFood(f))}
 	}
 	u := CurrentUser(r)
 	s.Render(w, r, http.StatusOK, "Foods", "foods", web.FoodsPage(rows, u != nil && u.IsAdmin(), showAll))

@@ -38,7 +38,8 @@ func TestFoodsSeededFromIFCT(t *testing.T) {
 		code := r[0]
 		var name string
 		var cho, prot, fat, fibre, kcal, portion float64
-		err := a.st.Pool.QueryRow(context.Background(), `SELECT name, carbohydrate_g::float8, protein_g::float8, fat_g::float8,
+		// The table's own name is kept as the food's source name.
+		err := a.st.Pool.QueryRow(context.Background(), `SELECT source_name, carbohydrate_g::float8, protein_g::float8, fat_g::float8,
 			fibre_g::float8, energy_kcal::float8, portion_g::float8 FROM foods WHERE source = $1`, code).
 			Scan(&name, &cho, &prot, &fat, &fibre, &kcal, &portion)
 		if err != nil {
@@ -53,7 +54,7 @@ func TestFoodsSeededFromIFCT(t *testing.T) {
 			return v
 		}
 		if name != r[1] {
-			t.Errorf("%s: name %q, table says %q", code, name, r[1])
+			t.Errorf("%s: source name %q, table says %q", code, name, r[1])
 		}
 		for _, c := range []struct {
 			what      string

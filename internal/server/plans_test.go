@@ -330,8 +330,10 @@ func TestConcurrentEditConflict(t *testing.T) {
 	}
 }
 
-// suggestionPart reads "Name: 2.5 × portion = 250 g" back into a name and grams.
-var suggestionPart = regexp.MustCompile(`^(.+): [0-9.]+ × .+ = ([0-9.]+) g$`)
+// suggestionPart reads "Name: 2.5 × portion = 250 g" (or "= 500 ml", or
+// "= about 230 g cooked (90 g uncooked)") back into a name and the grams as
+// weighed in the composition table.
+var suggestionPart = regexp.MustCompile(`^(.+): [0-9.]+ × .+ = (?:([0-9.]+) (?:g|ml)|about [0-9]+ g cooked \(([0-9.]+) g uncooked\))$`)
 
 func TestFoodSuggestionsAddUp(t *testing.T) {
 	a := newApp(t)
@@ -371,7 +373,7 @@ func TestFoodSuggestionsAddUp(t *testing.T) {
 			if !ok {
 				t.Fatalf("suggested food %q is not on the list", m[1])
 			}
-			grams, _ := strconv.ParseFloat(m[2], 64)
+			grams, _ := strconv.ParseFloat(m[2]+m[3], 64)
 			sum += grams * f.CarbohydrateG / 100
 		}
 		// Grams are printed whole, so allow their rounding on top of the tolerance.

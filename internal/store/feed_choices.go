@@ -51,7 +51,7 @@ func computedSuggestionsOf(ctx context.Context, q querier, versionID int64) (map
 func suggestionsOf(ctx context.Context, q querier, versionID int64) (map[string]string, error) {
 	rows, err := q.Query(ctx, `SELECT f.kind, f.on_date::text, f.feed_index, f.at, f.suggestion,
 			c.id IS NOT NULL, coalesce(c.free, false), coalesce(c.food_id, 0), coalesce(c.name, ''),
-			coalesce(c.amount_g, 0)::float8, coalesce(c.cho_g, 0)::float8, coalesce(c.protein_g, 0)::float8
+			coalesce(c.amount_g, 0)::float8, coalesce(c.unit, 'g'), coalesce(c.cho_g, 0)::float8, coalesce(c.protein_g, 0)::float8
 		FROM plan_feeds f LEFT JOIN plan_feed_choices c ON c.plan_version_id = f.plan_version_id
 			AND c.kind = f.kind AND c.on_date = f.on_date AND c.feed_index = f.feed_index
 		WHERE f.plan_version_id = $1 ORDER BY f.kind, f.on_date, f.feed_index, c.line`, versionID)
@@ -73,7 +73,7 @@ func suggestionsOf(ctx context.Context, q querier, versionID int64) (map[string]
 		var at time.Time
 		var has bool
 		var l menu.ChoiceLine
-		if err := rows.Scan(&kind, &date, &i, &at, &text, &has, &l.Free, &l.FoodID, &l.Name, &l.Grams, &l.ChoG, &l.ProteinG); err != nil {
+		if err := rows.Scan(&kind, &date, &i, &at, &text, &has, &l.Free, &l.FoodID, &l.Name, &l.Grams, &l.Unit, &l.ChoG, &l.ProteinG); err != nil {
 			return nil, err
 		}
 		key := FeedKey(kind, date, i)
@@ -115,7 +115,7 @@ func suggestionsOf(ctx context.Context, q querier, versionID int64) (map[string]
 // FeedChoices loads the dietitian's food choices of a version, by FeedKey.
 func (s *Store) FeedChoices(ctx context.Context, versionID int64) (map[string][]menu.ChoiceLine, error) {
 	rows, err := s.Pool.Query(ctx, `SELECT kind, on_date::text, feed_index, free, coalesce(food_id, 0), name,
-			coalesce(amount_g, 0)::float8, cho_g::float8, protein_g::float8
+			coalesce(amount_g, 0)::float8, unit, cho_g::float8, protein_g::float8
 		FROM plan_feed_choices WHERE plan_version_id = $1 ORDER BY kind, on_date, feed_index, line`, versionID)
 	if err != nil {
 		return nil, err
@@ -126,7 +126,7 @@ func (s *Store) FeedChoices(ctx context.Context, versionID int64) (map[string][]
 		var kind, date string
 		var i int
 		var l menu.ChoiceLine
-		if err := rows.Scan(&kind, &date, &i, &l.Free, &l.FoodID, &l.Name, &l.Grams, &l.ChoG, &l.ProteinG); err != nil {
+		if err := rows.Scan(&kind, &date, &i, &l.Free, &l.FoodID, &l.Name, &l.Grams, &l.Unit, &l.ChoG, &l.ProteinG); err != nil {
 			return nil, err
 		}
 		key := FeedKey(kind, date, i)
@@ -137,8 +137,8 @@ func (s *Store) FeedChoices(ctx context.Context, versionID int64) (map[string][]
 
 // copyFeedChoices copies the food choices of one version into another.
 func copyFeedChoices(ctx context.Context, tx pgx.Tx, from, to int64) error {
-	_, err := tx.Exec(ctx, `INSERT INTO plan_feed_choices (plan_version_id, kind, on_date, feed_index, line, free, food_id, name, amount_g, cho_g, protein_g, created_by, created_at)
-		SELECT $2, kind, on_date, feed_index, line, free, food_id, name, amount_g, cho_g, protein_g, created_by, created_at
+	_, err := tx.Exec(ctx, `INSERT INTO plan_feed_choices (plan_version_id, kind, on_date, feed_index, line, free, food_id, name, amount_g, unit, cho_g, protein_g, created_by, created_at)
+		SELECT $2, kind, on_date, feed_index, line, free, food_id, name, amount_g, unit, cho_g, protein_g, created_by, created_at
 		FROM plan_feed_choices WHERE plan_version_id = $1`, from, to)
 	return err
 }
@@ -171,15 +171,19 @@ func (s *Store) SetFeedChoice(ctx context.Context, actor Actor, versionID int64,
 		for i, l := range lines {
 			var food *int64
 			var amount *float64
+			unit := menu.UnitGrams
+			if l.Unit != "" && !l.Free {
+				unit = l.Unit
+			}
 			if !l.Free {
 				amount = &l.Grams
 				if l.FoodID != 0 {
 					food = &l.FoodID
 				}
 			}
-			b.Queue(`INSERT INTO plan_feed_choices (plan_version_id, kind, on_date, feed_index, line, free, food_id, name, amount_g, cho_g, protein_g, created_by)
-				VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12)`,
-				versionID, kind, date, index, i, l.Free, food, strings.TrimSpace(l.Name), amount, l.ChoG, l.ProteinG, actorID(actor))
+			b.Queue(`INSERT INTO plan_feed_choices (plan_version_id, kind, on_date, feed_index, line, free, food_id, name, amount_g, unit, cho_g, protein_g, created_by)
+				VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13)`,
+				versionID, kind, date, index, i, l.Free, food, strings.TrimSpace(l.Name), amount, unit, l.ChoG, l.ProteinG, actorID(actor))
 		}
 		if err := tx.SendBatch(ctx, b).Close(); err != nil {
 			return err

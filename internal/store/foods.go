@@ -35,9 +35,16 @@ type Food struct {
 	Facts         []string
 	FactsRecorded bool
 	Source        string
-	ArchivedAt    *time.Time
-	CreatedAt     time.Time
-	UpdatedAt     time.Time
+	// SourceName is the composition table's own name of the food (Name
+	// being the everyday one); empty for the practice's own products.
+	SourceName string
+	// CookedYield is the grams as eaten per gram as weighed for a food
+	// eaten cooked but listed dry or raw (rice, dals); 0 when eaten as
+	// weighed.
+	CookedYield float64
+	ArchivedAt  *time.Time
+	CreatedAt   time.Time
+	UpdatedAt   time.Time
 }
 
 // Archived reports whether the food is archived (kept, but no longer suggested).
@@ -47,12 +54,13 @@ func (f Food) Archived() bool { return f.ArchivedAt != nil }
 var ErrFoodNameTaken = errors.New("store: a food with this name already exists")
 
 const foodCols = `id, name, carbohydrate_g::float8, protein_g::float8, fat_g::float8, fibre_g::float8, energy_kcal::float8,
-	portion_name, portion_g::float8, liquid, portable, contains_gluten, facts, facts_recorded, source, archived_at, created_at, updated_at`
+	portion_name, portion_g::float8, liquid, portable, contains_gluten, facts, facts_recorded, source, source_name,
+	coalesce(cooked_yield, 0)::float8, archived_at, created_at, updated_at`
 
 func scanFood(row pgx.Row) (Food, error) {
 	var f Food
 	err := row.Scan(&f.ID, &f.Name, &f.CarbohydrateG, &f.ProteinG, &f.FatG, &f.FibreG, &f.EnergyKcal,
-		&f.PortionName, &f.PortionG, &f.Liquid, &f.Portable, &f.ContainsGluten, &f.Facts, &f.FactsRecorded, &f.Source, &f.ArchivedAt, &f.CreatedAt, &f.UpdatedAt)
+		&f.PortionName, &f.PortionG, &f.Liquid, &f.Portable, &f.ContainsGluten, &f.Facts, &f.FactsRecorded, &f.Source, &f.SourceName, &f.CookedYield, &f.ArchivedAt, &f.CreatedAt, &f.UpdatedAt)
 	return f, notFound(err)
 }
 
@@ -74,7 +82,8 @@ func (s *Store) FoodByID(ctx context.Context, id int64) (Food, error) {
 func foodDetail(f *Food) map[string]any {
 	return map[string]any{"name": f.Name, "carbohydrate_g": f.CarbohydrateG, "protein_g": f.ProteinG, "fat_g": f.FatG,
 		"fibre_g": f.FibreG, "energy_kcal": f.EnergyKcal, "portion_name": f.PortionName, "portion_g": f.PortionG,
-		"liquid": f.Liquid, "portable": f.Portable, "contains_gluten": f.ContainsGluten, "facts": f.Facts, "source": f.Source}
+		"liquid": f.Liquid, "portable": f.Portable, "contains_gluten": f.ContainsGluten, "facts": f.Facts, "source": f.Source,
+		"source_name": f.SourceName, "cooked_yield": f.CookedYield}
 }
 
 func foodErr(err error) error {
@@ -88,11 +97,11 @@ func foodErr(err error) error {
 func (s *Store) AddFood(ctx context.Context, actor Actor, f *Food) error {
 	return foodErr(s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := tx.QueryRow(ctx, `INSERT INTO foods (name, carbohydrate_g, protein_g, fat_g, fibre_g, energy_kcal,
-			portion_name, portion_g, liquid, portable, source, contains_gluten, facts, facts_recorded)
-			VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14)
+			portion_name, portion_g, liquid, portable, source, contains_gluten, facts, facts_recorded, source_name, cooked_yield)
+			VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16)
 			RETURNING id, created_at, updated_at`,
 			f.Name, f.CarbohydrateG, f.ProteinG, f.FatG, f.FibreG, f.EnergyKcal, f.PortionName, f.PortionG,
-			f.Liquid, f.Portable, f.Source, f.ContainsGluten, factsOf(f), f.FactsRecorded).Scan(&f.ID, &f.CreatedAt, &f.UpdatedAt); err != nil {
+			f.Liquid, f.Portable, f.Source, f.ContainsGluten, factsOf(f), f.FactsRecorded, f.SourceName, yieldOf(f)).Scan(&f.ID, &f.CreatedAt, &f.UpdatedAt); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "create", "food", f.ID, foodDetail(f))
@@ -104,10 +113,10 @@ func (s *Store) UpdateFood(ctx context.Context, actor Actor, f *Food) error {
 	return foodErr(s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := execOne(ctx, tx, `UPDATE foods SET name = $2, carbohydrate_g = $3, protein_g = $4, fat_g = $5, fibre_g = $6,
 			energy_kcal = $7, portion_name = $8, portion_g = $9, liquid = $10, portable = $11, source = $12,
-			contains_gluten = $13, facts = $14, facts_recorded = $15, updated_at = now()
+			contains_gluten = $13, facts = $14, facts_recorded = $15, source_name = $16, cooked_yield = $17, updated_at = now()
 			WHERE id = $1`,
 			f.ID, f.Name, f.CarbohydrateG, f.ProteinG, f.FatG, f.FibreG, f.EnergyKcal, f.PortionName, f.PortionG,
-			f.Liquid, f.Portable, f.Source, f.ContainsGluten, factsOf(f), f.FactsRecorded); err != nil {
+			f.Liquid, f.Portable, f.Source, f.ContainsGluten, factsOf(f), f.FactsRecorded, f.SourceName, yieldOf(f)); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "update", "food", f.ID, foodDetail(f))
@@ -147,4 +156,12 @@ func factsOf(f *Food) []string {
 		out = append(out, "gluten")
 	}
 	return out
+}
+
+// yieldOf is a food's cooked yield as stored: NULL when eaten as weighed.
+func yieldOf(f *Food) *float64 {
+	if f.CookedYield > 0 {
+		return &f.CookedYield
+	}
+	return nil
 }
