@@ -3,6 +3,8 @@ package demo
 import (
 	"math"
 	"time"
+
+	"larder/internal/fuel"
 )
 
 // The athletes of the demo practice. All people, clubs and races are
@@ -128,7 +130,11 @@ func athletes() []athlete {
 			},
 			events: []event{
 				{key: "triathlon", name: "Coastline Standard Triathlon", zone: "Australia/Perth", modality: "triathlon", priority: "A",
-					inDays: 49, hour: 7, minute: 0, min: 150, days: 1, km: km(51.5), notes: "1.5 km sea swim, 40 km bike, 10 km run."},
+					inDays: 49, hour: 7, minute: 0, min: 150, days: 1, km: km(51.5), notes: "1.5 km sea swim, 40 km bike, 10 km run.",
+					// The legs as raced, so no carbohydrate is planned in the swim.
+					legs: []fuel.Segment{{Modality: "swim", DistanceKm: km(1.5), ExpectedDurationMin: 30}, {Modality: "transition", ExpectedDurationMin: 3},
+						{Modality: "cycle", DistanceKm: km(40), ExpectedDurationMin: 70}, {Modality: "transition", ExpectedDurationMin: 2},
+						{Modality: "run", DistanceKm: km(10), ExpectedDurationMin: 45}}},
 			},
 		},
 		{

@@ -226,6 +226,12 @@ func (l *loader) athlete(a athlete) error {
 				return err
 			}
 		}
+		if len(e.legs) > 0 {
+			// Legs are added to an event loaded before they were known.
+			if _, err := l.tx.Exec(l.ctx, `UPDATE events SET segments = $2 WHERE id = $1 AND segments = '[]' AND stages = '[]'`, eid, e.legs); err != nil {
+				return err
+			}
+		}
 		l.res.IDs.Events[e.key] = eid
 	}
 	return nil
@@ -267,6 +273,8 @@ type event struct {
 	km                                         *float64
 	// stages, for a stage race: each stage from the first one's start.
 	stages []demoStage
+	// legs, for a multi-sport event: its legs in race order.
+	legs []fuel.Segment
 }
 
 // demoStage is one stage of a demo stage race: days and clock time after
