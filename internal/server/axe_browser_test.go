@@ -199,6 +199,7 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 		{"new client", "/clients/new"},
 		{"foods", "/foods"},
 		{"new food", "/foods/new"},
+		{"sources", "/sources"},
 		{"team", "/team"},
 		{"account", "/account"},
 		{"not found (signed in)", "/clients/999999999"},

@@ -13,6 +13,7 @@ import (
 	"larder/internal/chart"
 	"larder/internal/fuel"
 	"larder/internal/menu"
+	"larder/internal/sources"
 	"larder/internal/store"
 	"larder/web"
 )
@@ -280,7 +281,7 @@ func hoursWords(min float64) string {
 
 func findingView(f fuel.Finding) web.FindingView {
 	return web.FindingView{Level: f.Level, Symbol: web.LevelSymbol(f.Level), Word: web.LevelWord(f.Level),
-		Message: f.Message, Source: f.Source, Code: f.Code}
+		Message: f.Message, Source: sources.Short(f.Source), Code: f.Code}
 }
 
 func bandWords(band string) string {

@@ -8,6 +8,7 @@ import (
 	"time"
 
 	"larder/internal/sheet/sheettest"
+	"larder/internal/sources"
 )
 
 // Words and units that belong to the dietitian's form only: guideline
@@ -161,6 +162,39 @@ func BenchmarkAthleteSheet(b *testing.B) {
 	for b.Loop() {
 		if _, err := Render(s, A4); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+// The dietitian's form cites each finding's source by its short citation;
+// "(from memory)" and the other status words are on the Sources page.
+func TestStaffFormShortCitations(t *testing.T) {
+	for _, name := range []string{"marathon-loading.json", "cyclist-5h-race.json", "rower-two-sessions.json", "runner-10k-race.json", "training-week.json", "ironman-race.json"} {
+		req, plan := example(t, name)
+		pdf, err := Render(sheetFor(req, plan, StatusPublished), A4)
+		if err != nil {
+			t.Fatal(err)
+		}
+		text, ok := sheettest.Text(t, pdf)
+		if !ok {
+			t.Skip("pdftotext not installed")
+		}
+		for _, w := range []string{"from memory", "common practice", "model assumption", "(review)"} {
+			if strings.Contains(text, w) {
+				t.Errorf("%s: the dietitian's form says %q:\n%s", name, w, text)
+			}
+		}
+		cited := false
+		for _, f := range plan.Findings {
+			if f.Level != "ok" && f.Source != "" {
+				cited = true
+				if !strings.Contains(text, "Checked against: "+sources.Short(f.Source)) {
+					t.Errorf("%s: finding %s not cited as %q", name, f.Code, sources.Short(f.Source))
+				}
+			}
+		}
+		if !cited && name == "marathon-loading.json" {
+			t.Errorf("%s: no cited finding to check", name)
 		}
 	}
 }

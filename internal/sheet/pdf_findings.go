@@ -10,6 +10,7 @@ import (
 	"github.com/go-pdf/fpdf"
 
 	"larder/internal/fuel"
+	"larder/internal/sources"
 )
 
 // The sheet's findings with their level marks, and the words and numbers
@@ -35,7 +36,7 @@ func (d *doc) findings() {
 		d.font("", 8.6)
 		ml := d.lines(d.findingText(fd.Subject, fd.Message), textW)
 		d.font("", 7.2)
-		sl := d.lines("Checked against: "+fd.Source, textW)
+		sl := d.lines("Checked against: "+sources.Short(fd.Source), textW)
 		h := float64(len(ml))*3.8 + float64(len(sl))*3.2 + 1.4
 		d.need(h)
 		y := f.GetY()
