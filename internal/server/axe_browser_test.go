@@ -180,6 +180,7 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 	submitUnchecked(t, ctx, "sign-in refused", "form")
 	axeCheck(t, ctx, src, "sign-in refused")
 	axeVisit(t, ctx, src, "not found (signed out)", a.srv.URL+"/no-such-page")
+	axeVisit(t, ctx, src, "sources (signed out)", a.srv.URL+"/sources")
 
 	err = chromedp.Do(ctx,
 		chromedp.Navigate(a.srv.URL+"/signin"),

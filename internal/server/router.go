@@ -33,6 +33,9 @@ func (s *Server) routes() http.Handler {
 		r.Get("/setup", s.setupPage)
 		r.Post("/setup", s.setup)
 		r.Post("/signout", s.signOut)
+		// The guideline values and their sources hold no client data: open
+		// to anyone, with the staff navigation for those signed in.
+		r.Get("/sources", s.sourcesPage)
 
 		r.Group(func(r chi.Router) {
 			r.Use(s.requireUser)

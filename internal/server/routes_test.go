@@ -28,6 +28,7 @@ var publicRoutes = map[string]bool{
 	"/signin":              true,
 	"/setup":               true,
 	"/signout":             true,
+	"/sources":             true,
 	"/c/{token}":           true,
 	"/c/{token}/plan.ics":  true,
 	"/c/{token}/sheet.pdf": true,

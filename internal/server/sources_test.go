@@ -17,14 +17,19 @@ import (
 // no status word.
 func TestSourcesPage(t *testing.T) {
 	a := newApp(t)
-	if res := a.browser().get("/sources"); res.status != http.StatusSeeOther {
-		t.Fatalf("anonymous: %d", res.status)
+	// Open to anyone (it holds no client data), with the staff
+	// navigation for those signed in.
+	public := a.browser().get("/sources")
+	if public.status != http.StatusOK || strings.Contains(public.body, `aria-label="Main"`) {
+		t.Fatalf("signed out: %d", public.status)
 	}
+	public.mustContain(t, `id="g-band.light"`)
 	b, _ := a.signedIn(store.RoleDietitian)
 	res := b.get("/sources")
 	if res.status != http.StatusOK {
 		t.Fatalf("sources page: %d", res.status)
 	}
+	res.mustContain(t, `aria-label="Main"`)
 	rows := sources.Rows()
 	for _, st := range sources.Statuses {
 		res.mustContain(t, "<dt>"+string(st)+" ("+strconv.Itoa(sources.Count(rows, st))+" values)</dt>")

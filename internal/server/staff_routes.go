@@ -12,8 +12,6 @@ func (s *Server) mountStaffRoutes(r chi.Router) {
 	r.Post("/account/password", s.changePassword)
 	r.Post("/account/sessions/{sessionID}/end", s.endSession)
 
-	r.Get("/sources", s.sourcesPage)
-
 	r.Get("/clients", s.clientList)
 	r.Get("/clients/new", s.clientNewPage)
 	r.Post("/clients", s.clientCreate)
