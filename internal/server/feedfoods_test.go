@@ -139,7 +139,7 @@ func TestOneFoodPlanPerFeedOnEverySurface(t *testing.T) {
 					if sg == "" {
 						continue
 					}
-					head := f.At.In(loc).Format("15:04") + " " + f.Label
+					head := f.At.In(loc).Format("15:04") + " " + sheet.FeedLabel(plan, f)
 					if !followedBy(folded, head, fold(sg)) {
 						t.Errorf("%s: sheet has no %q followed by its food plan %q", name, head, sg)
 					}

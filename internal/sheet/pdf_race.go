@@ -244,18 +244,22 @@ func (d *doc) raceSubject(parts []string) (string, bool) {
 	return "", false
 }
 
-// feedLabel names a day's feed; an in-event feed of a stage or of a block
-// of hours says which.
-func (d *doc) feedLabel(fd fuel.Feed) string {
+// feedLabel names a day's feed as the sheet prints it.
+func (d *doc) feedLabel(fd fuel.Feed) string { return FeedLabel(d.s.Plan, fd) }
+
+// FeedLabel names a day's feed as the sheet prints it: an in-event feed of a
+// stage or of a block of hours says which, so an athlete in a stage race
+// reads "during stage 2" rather than a bare "during event".
+func FeedLabel(p fuel.Plan, fd fuel.Feed) string {
 	if fd.Label != "during event" {
 		return fd.Label
 	}
-	for i, st := range d.s.Plan.Stages {
+	for i, st := range p.Stages {
 		if st.StartsAt.Equal(fd.At) {
 			return "during stage " + strconv.Itoa(i+1)
 		}
 	}
-	if de := d.s.Plan.DuringEvent; de != nil {
+	if de := p.DuringEvent; de != nil {
 		for _, b := range de.Blocks {
 			if b.From.Equal(fd.At) {
 				return "race, next " + num(b.To.Sub(b.From).Hours(), 1) + " h"
