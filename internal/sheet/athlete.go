@@ -229,11 +229,14 @@ func (d *doc) athleteDays() {
 		d.f.SetX(marginX)
 		d.f.CellFormat(d.w, 5, d.tr(dayWords(day.Date)+" · "+roleWords(day)), "", 1, "L", false, 0, "")
 		training := d.s.Training[day.Date]
-		if training == "" {
+		switch {
+		case training != "":
+		case day.Role == fuel.RoleEvent: // the event is the day's exercise
+			training = "your event"
+		case day.TrainingMin > 0:
+			training = num(day.TrainingMin, 0) + " min"
+		default:
 			training = "rest"
-			if day.TrainingMin > 0 {
-				training = num(day.TrainingMin, 0) + " min"
-			}
 		}
 		total := num(day.ChoG, 0) + " g carbohydrate, " + num(day.ProteinG, 0) + " g protein, " + num(day.FatG, 0) + " g fat"
 		if d.s.ShowFigures {
