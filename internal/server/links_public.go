@@ -284,6 +284,10 @@ func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
 	}
 	if de := plan.DuringEvent; de != nil && de.ChoGPerH > 0 {
 		e.DuringGPerH, e.DuringTotalG, e.DuringHours = web.Num(de.ChoGPerH, 0), web.Num(de.TotalChoG, 0), hoursWords(de.DurationMin)
+		// With legs nothing is eaten in the swim: a rate over the whole race
+		// would not add up to the total, so the box gives the total and the
+		// legs below give each rate.
+		e.DuringLegs = len(de.Segments) > 0
 	}
 	t.Event = e
 	return t

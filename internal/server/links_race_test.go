@@ -280,4 +280,12 @@ func TestClientLinkLegs(t *testing.T) {
 			}
 		}
 	}
+	// The event box gives the race's total for the legs where one eats, not
+	// an hourly rate over the whole race that the total does not add up to
+	// (nothing is eaten in the swim).
+	box := section(page, `id="event-day"`)
+	want := web.Num(plan.DuringEvent.TotalChoG, 0) + " g carbohydrate</strong> on the legs where you can eat"
+	if !strings.Contains(box, want) || strings.Contains(box, "per hour") {
+		t.Errorf("event box does not give the legs' total %q without a whole-race rate:\n%s", want, box)
+	}
 }
