@@ -2,6 +2,7 @@ package store
 
 import (
 	"context"
+	"encoding/json"
 	"time"
 
 	"github.com/jackc/pgx/v5"
@@ -25,7 +26,8 @@ type ReadRecord struct {
 }
 
 // AuditRead records that actor opened a client's health data, in the same
-// audit log as changes (action "view").
+// audit log as changes (action "view"). It returns once the row is
+// committed; reads recorded at the same moment share one commit (readLog).
 func (s *Store) AuditRead(ctx context.Context, actor Actor, rec ReadRecord) error {
 	detail := map[string]any{"client_id": rec.ClientID, "path": clip(rec.Path, 300)}
 	if rec.PlanID != 0 {
@@ -38,7 +40,22 @@ func (s *Store) AuditRead(ctx context.Context, actor Actor, rec ReadRecord) erro
 	if rec.PlanID != 0 {
 		id = rec.PlanID
 	}
-	return s.Audit(ctx, actor, "view", rec.Kind, id, detail)
+	b, err := json.Marshal(detail)
+	if err != nil {
+		return err
+	}
+	p := pendingRead{entity: rec.Kind, detail: b}
+	if actor != System {
+		v := int64(actor)
+		p.userID = &v
+	}
+	if id != 0 {
+		p.entityID = &id
+	}
+	if s.reads == nil { // a Store made without New
+		return s.insertReads([]pendingRead{p})
+	}
+	return s.reads.add(ctx, s, p)
 }
 
 // ReadEntry is one recorded read, with the client's name for the list.

@@ -20,10 +20,14 @@ type Store struct {
 	// frozen keeps decoded published versions (see FrozenVersionByID);
 	// nil (a Store made without New) caches nothing.
 	frozen *frozenCache
+	// reads writes recorded reads by group commit (see readLog).
+	reads *readLog
 }
 
 // New wraps a connection pool.
-func New(pool *pgxpool.Pool) *Store { return &Store{Pool: pool, frozen: newFrozenCache()} }
+func New(pool *pgxpool.Pool) *Store {
+	return &Store{Pool: pool, frozen: newFrozenCache(), reads: &readLog{}}
+}
 
 // ErrNotFound is returned when a row asked for by id does not exist (or does
 // not belong to the client named in the request).
