@@ -123,32 +123,35 @@ const (
 )
 
 func (s *Server) clientPage(w http.ResponseWriter, r *http.Request) {
-	c, ok := s.ClientFromURL(w, r)
+	id, ok := s.ParamID(w, r, "clientID")
 	if !ok {
 		return
 	}
-	ctx := r.Context()
-	masses, err := s.Store.ListBodyMass(ctx, c.ID)
-	if err != nil {
-		s.ServerError(w, r, err)
-		return
-	}
-	training, err := s.Store.ListTraining(ctx, c.ID)
-	if err != nil {
-		s.ServerError(w, r, err)
-		return
-	}
-	events, err := s.Store.ListEvents(ctx, c.ID)
-	if err != nil {
-		s.ServerError(w, r, err)
-		return
-	}
-	history, err := s.Store.AuditForClient(ctx, c.ID, 12)
-	if err != nil {
-		s.ServerError(w, r, err)
-		return
-	}
+	// Everything the page shows, read in one round trip.
 	today := s.Today()
+	var (
+		rd       store.Reads
+		c        store.Client
+		masses   []store.BodyMass
+		training []store.TrainingSession
+		events   []store.Event
+		history  []store.AuditEntry
+		needs    store.DietaryNeeds
+		plans    []store.PlanRow
+		links    []store.ClientLink
+	)
+	rd.Client(id, &c)
+	rd.BodyMass(id, &masses)
+	rd.Training(id, &training)
+	rd.Events(id, &events)
+	rd.AuditForClient(id, 12, &history)
+	rd.DietaryNeeds(id, &needs)
+	rd.Plans(id, &plans)
+	rd.ClientLinks(id, &links)
+	if err := s.Store.Read(r.Context(), &rd); err != nil {
+		s.StoreError(w, r, err)
+		return
+	}
 	allTraining := r.URL.Query().Get("training") == "all"
 	shown := training
 	if !allTraining {
@@ -164,19 +167,11 @@ func (s *Server) clientPage(w http.ResponseWriter, r *http.Request) {
 		Client: c, Today: today, BodyMass: masses, Training: shown, TrainingTotal: len(training),
 		AllTraining: allTraining, DaysBack: trainingDaysBack, DaysAhead: trainingDaysAhead, Events: events, History: history,
 	}
-	if d.Needs, err = s.clientNeedsSection(r, c); err != nil {
-		s.ServerError(w, r, err)
-		return
-	}
-	if d.Plans, err = s.clientPlansSection(r, c); err != nil {
-		s.ServerError(w, r, err)
-		return
-	}
-	if d.Link, err = s.clientLinkSection(r, c); err != nil {
-		s.ServerError(w, r, err)
-		return
-	}
+	d.Needs = clientNeedsSection(c, needs)
+	d.Plans = s.clientPlansSection(c, plans, events, training)
+	d.Link = web.ClientLinkSection(s.linksViewOf(c, links, forms.New()))
 	if len(masses) > 1 {
+		var err error
 		if d.BodyMassChart, err = s.clientBodyMassChart(r, c, masses); err != nil {
 			s.ServerError(w, r, err)
 			return

@@ -29,11 +29,7 @@ const maxNeedsOther = 1000
 
 // clientNeedsSection is the dietary-needs box of the client page: the
 // recorded needs, and an offer to record those the cautions seem to name.
-func (s *Server) clientNeedsSection(r *http.Request, c store.Client) (web.ClientNeedsView, error) {
-	d, err := s.Store.ClientDietaryNeeds(r.Context(), c.ID)
-	if err != nil {
-		return web.ClientNeedsView{}, err
-	}
+func clientNeedsSection(c store.Client, d store.DietaryNeeds) web.ClientNeedsView {
 	v := web.ClientNeedsView{ClientID: c.ID, Recorded: menu.NeedLabels(d.Codes), Other: d.Other, Confirmed: d.Confirmed(),
 		OfferURL: web.Path("clients", c.ID, "dietary-needs") + "?offer=1"}
 	for _, m := range menu.NeedsIn(c.Cautions) {
@@ -41,7 +37,7 @@ func (s *Server) clientNeedsSection(r *http.Request, c store.Client) (web.Client
 			v.Offers = append(v.Offers, web.NeedOffer{Label: m.Need.Label, Phrase: m.Phrase})
 		}
 	}
-	return v, nil
+	return v
 }
 
 func needChoices() []web.NeedChoice {

@@ -8,7 +8,6 @@ import (
 	"time"
 	"unicode/utf8"
 
-	"github.com/a-h/templ"
 	"github.com/go-chi/chi/v5"
 
 	"larder/internal/auth"
@@ -46,6 +45,12 @@ func (s *Server) linksView(r *http.Request, c store.Client, f forms.Form) (web.C
 	if err != nil {
 		return web.ClientLinksView{}, err
 	}
+	return s.linksViewOf(c, links, f), nil
+}
+
+// linksViewOf is the links box of a client with these links, the form f
+// beside them.
+func (s *Server) linksViewOf(c store.Client, links []store.ClientLink, f forms.Form) web.ClientLinksView {
 	if f.Get("expires_days") == "" {
 		f.Values.Set("expires_days", strconv.Itoa(defaultLinkExpiryDays))
 	}
@@ -68,19 +73,11 @@ func (s *Server) linksView(r *http.Request, c store.Client, f forms.Form) (web.C
 		}
 		v.Links = append(v.Links, line)
 	}
-	return v, nil
+	return v
 }
 
 // linkWhen prints a moment for the staff table (UTC, like the audit table).
 func linkWhen(t time.Time) string { return t.UTC().Format("2 Jan 2006 15:04") + " UTC" }
-
-func (s *Server) clientLinkSection(r *http.Request, c store.Client) (templ.Component, error) {
-	v, err := s.linksView(r, c, forms.New())
-	if err != nil {
-		return nil, err
-	}
-	return web.ClientLinkSection(v), nil
-}
 
 // linkInput is the create form.
 type linkInput struct {

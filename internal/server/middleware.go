@@ -17,7 +17,11 @@ import (
 
 type ctxKey int
 
-const userKey ctxKey = iota
+const (
+	userKey ctxKey = iota
+	// practiceKey holds the practice's name read with the signed-in user.
+	practiceKey
+)
 
 // CurrentUser returns the signed-in user, or nil on public pages.
 func CurrentUser(r *http.Request) *store.User {
@@ -95,7 +99,7 @@ func (s *Server) loadUser(next http.Handler) http.Handler {
 		}
 		// The session's own row must still exist: a password change, a reset
 		// or "End" on the account page removes it, and with it this sign-in.
-		u, err := s.Store.SessionUser(r.Context(), id, s.Sessions.GetInt64(r.Context(), auth.KeySessionID))
+		u, practice, err := s.Store.SessionUser(r.Context(), id, s.Sessions.GetInt64(r.Context(), auth.KeySessionID))
 		switch {
 		case errors.Is(err, store.ErrNotFound) || (err == nil && u.Disabled):
 			_ = s.Sessions.Destroy(r.Context())
@@ -103,7 +107,8 @@ func (s *Server) loadUser(next http.Handler) http.Handler {
 			s.ServerError(w, r, err)
 			return
 		default:
-			r = r.WithContext(context.WithValue(r.Context(), userKey, &u))
+			ctx := context.WithValue(r.Context(), userKey, &u)
+			r = r.WithContext(context.WithValue(ctx, practiceKey, practice))
 		}
 		next.ServeHTTP(w, r)
 	})

@@ -4,12 +4,14 @@ import (
 	"errors"
 	"fmt"
 	"net/http"
+	"slices"
 	"strconv"
 
 	"github.com/go-chi/chi/v5"
 
 	"larder/internal/forms"
 	"larder/internal/fuel"
+	"larder/internal/menu"
 	"larder/internal/store"
 	"larder/web"
 )
@@ -127,12 +129,53 @@ func (s *Server) versionFromURL(w http.ResponseWriter, r *http.Request) (store.C
 	return c, p, store.PlanVersion{}, nil, false
 }
 
+// showPlanVersion shows one version of a plan. What versionFromURL and
+// renderPlan read one after another is read here in one round trip; a
+// frozen version's content and food suggestions come from the cache.
 func (s *Server) showPlanVersion(w http.ResponseWriter, r *http.Request) {
-	c, p, v, versions, ok := s.versionFromURL(w, r)
+	clientID, ok := s.ParamID(w, r, "clientID")
 	if !ok {
 		return
 	}
-	s.renderPlan(w, r, http.StatusOK, c, p, v, versions, versionValues(v), "")
+	planID, ok := s.ParamID(w, r, "planID")
+	if !ok {
+		return
+	}
+	n, err := strconv.Atoi(chi.URLParam(r, "version"))
+	if err != nil || n < 1 {
+		s.NotFound(w, r)
+		return
+	}
+	var (
+		rd       store.Reads
+		c        store.Client
+		p        store.Plan
+		versions []store.PlanVersion
+		needs    store.DietaryNeeds
+		stored   map[string]string
+	)
+	rd.Client(clientID, &c)
+	rd.Plan(clientID, planID, &p)
+	rd.PlanVersions(planID, &versions)
+	rd.DietaryNeeds(clientID, &needs)
+	rd.DraftSuggestions(planID, n, &stored)
+	if err := s.Store.Read(r.Context(), &rd); err != nil {
+		s.StoreError(w, r, err)
+		return
+	}
+	i := slices.IndexFunc(versions, func(v store.PlanVersion) bool { return v.Version == n })
+	if i < 0 {
+		s.NotFound(w, r)
+		return
+	}
+	v := versions[i]
+	if v.Status != store.PlanDraft {
+		if stored, err = s.Store.FeedSuggestions(r.Context(), v.ID); err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
+	}
+	s.renderPlanWith(w, r, http.StatusOK, c, p, v, versions, versionValues(v), "", stored, needs)
 }
 
 func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, c store.Client, p store.Plan, v store.PlanVersion,
@@ -142,11 +185,19 @@ func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, 
 		s.ServerError(w, r, err)
 		return
 	}
-	opts, err := s.menuOptions(r.Context(), c)
+	needs, err := s.Store.ClientDietaryNeeds(r.Context(), c.ID)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
+	s.renderPlanWith(w, r, status, c, p, v, versions, f, notice, stored, needs)
+}
+
+// renderPlanWith is renderPlan with the version's stored food suggestions
+// and the client's dietary needs already read.
+func (s *Server) renderPlanWith(w http.ResponseWriter, r *http.Request, status int, c store.Client, p store.Plan, v store.PlanVersion,
+	versions []store.PlanVersion, f forms.Form, notice string, stored map[string]string, needs store.DietaryNeeds) {
+	opts := menu.OptionsForClient(c.Cautions, needs.Codes, needs.Confirmed())
 	pv := s.planView(c, p, v, versions, stored)
 	if err := s.placeFoodChoices(r.Context(), &pv, c, p, v); err != nil {
 		s.ServerError(w, r, err)

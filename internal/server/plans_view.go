@@ -357,15 +357,10 @@ func (s *Server) planSuggestions(ctx context.Context, c store.Client, plan fuel.
 
 // ----- client page hooks -----
 
-func (s *Server) clientPlansSection(r *http.Request, c store.Client) (templ.Component, error) {
-	plans, err := s.Store.ListPlans(r.Context(), c.ID)
-	if err != nil {
-		return nil, err
-	}
-	events, err := s.Store.ListEvents(r.Context(), c.ID)
-	if err != nil {
-		return nil, err
-	}
+// clientPlansSection is the plans box of the client page: the client's
+// plans, and the plans that can be started from their events and training
+// (the client's whole log, newest first, as ListTraining gives it).
+func (s *Server) clientPlansSection(c store.Client, plans []store.PlanRow, events []store.Event, training []store.TrainingSession) templ.Component {
 	v := web.ClientPlansView{ClientID: c.ID}
 	for _, p := range plans {
 		line := web.ClientPlanLine{URL: web.Path("clients", c.ID, "plans", p.ID), Title: p.Title, Kind: kindLabel(p.Kind),
@@ -386,19 +381,22 @@ func (s *Server) clientPlansSection(r *http.Request, c store.Client) (templ.Comp
 	repletion := web.Option{Value: base + "?kind=repletion", Label: "Repletion plan"}
 	// Offer repletion after the latest session with a start time, so the
 	// form comes prefilled with its end and the next session's start.
-	if ts, err := s.Store.TrainingBetween(r.Context(), c.ID, s.Today().AddDate(0, 0, -7), s.Today()); err == nil {
-		for i := len(ts) - 1; i >= 0; i-- {
-			if ts[i].StartTime != "" {
-				repletion = web.Option{Value: base + "?kind=repletion&training=" + web.ID(ts[i].ID),
-					Label: "Repletion after " + ts[i].OnDate.Format("Mon 2 Jan") + " " + ts[i].StartTime}
-				break
-			}
+	// The log is newest first, so the first session of the past week with a
+	// start time is the latest one.
+	today := s.Today()
+	weekAgo := today.AddDate(0, 0, -7)
+	for _, t := range training {
+		if t.OnDate.After(today) || t.OnDate.Before(weekAgo) || t.StartTime == "" {
+			continue
 		}
+		repletion = web.Option{Value: base + "?kind=repletion&training=" + web.ID(t.ID),
+			Label: "Repletion after " + t.OnDate.Format("Mon 2 Jan") + " " + t.StartTime}
+		break
 	}
 	v.Starts = append(v.Starts,
 		repletion,
 		web.Option{Value: base + "?kind=week", Label: "Training-week plan"})
-	return web.ClientPlans(v), nil
+	return web.ClientPlans(v)
 }
 
 func (s *Server) clientBodyMassChart(r *http.Request, c store.Client, history []store.BodyMass) (templ.Component, error) {

@@ -30,8 +30,12 @@ func (s *Server) Render(w http.ResponseWriter, r *http.Request, status int, titl
 	}
 }
 
-// PracticeName is the practice_name setting, or the default.
+// PracticeName is the practice_name setting, or the default: as read with
+// the signed-in user at the start of this request (loadUser), else read now.
 func (s *Server) PracticeName(r *http.Request) string {
+	if name, ok := r.Context().Value(practiceKey).(string); ok {
+		return name
+	}
 	name, err := s.Store.Setting(r.Context(), store.SettingPracticeName, store.DefaultPracticeName)
 	if err != nil {
 		s.Log.Warn("practice name", "err", err)

@@ -54,6 +54,10 @@ func (s *Store) Audit(ctx context.Context, actor Actor, action, entity string, e
 
 const auditCols = `a.id, a.at, a.user_id, coalesce(u.name, ''), a.action, a.entity, a.entity_id, a.detail`
 
+const auditForClientSQL = `SELECT ` + auditCols + ` FROM audit_log a LEFT JOIN users u ON u.id = a.user_id
+	WHERE ((a.entity = 'client' AND a.entity_id = $1) OR (a.detail->>'client_id')::bigint = $1) AND a.action <> 'view'
+	ORDER BY a.at DESC, a.id DESC LIMIT $2`
+
 func scanAudit(rows pgx.Rows) ([]AuditEntry, error) {
 	return pgx.CollectRows(rows, func(r pgx.CollectableRow) (AuditEntry, error) {
 		var e AuditEntry
@@ -76,9 +80,7 @@ func (s *Store) AuditFor(ctx context.Context, entity string, entityID int64, lim
 // records (body mass, training, events), which carry client_id in detail;
 // reads are left out (ListReads lists those).
 func (s *Store) AuditForClient(ctx context.Context, clientID int64, limit int) ([]AuditEntry, error) {
-	rows, err := s.Pool.Query(ctx, `SELECT `+auditCols+` FROM audit_log a LEFT JOIN users u ON u.id = a.user_id
-		WHERE ((a.entity = 'client' AND a.entity_id = $1) OR (a.detail->>'client_id')::bigint = $1) AND a.action <> 'view'
-		ORDER BY a.at DESC, a.id DESC LIMIT $2`, clientID, limit)
+	rows, err := s.Pool.Query(ctx, auditForClientSQL, clientID, limit)
 	if err != nil {
 		return nil, err
 	}

@@ -22,6 +22,9 @@ type BodyMass struct {
 
 const bodyMassCols = `id, client_id, measured_on, mass_kg::float8, body_fat_pct::float8, method, entered_unit, created_at`
 
+const listBodyMassSQL = `SELECT ` + bodyMassCols + ` FROM body_mass WHERE client_id = $1
+	ORDER BY measured_on DESC, id DESC`
+
 func scanBodyMass(row pgx.Row) (BodyMass, error) {
 	var m BodyMass
 	err := row.Scan(&m.ID, &m.ClientID, &m.MeasuredOn, &m.MassKg, &m.BodyFatPct, &m.Method, &m.EnteredUnit, &m.CreatedAt)
@@ -30,8 +33,7 @@ func scanBodyMass(row pgx.Row) (BodyMass, error) {
 
 // ListBodyMass lists a client's measurements, newest first.
 func (s *Store) ListBodyMass(ctx context.Context, clientID int64) ([]BodyMass, error) {
-	rows, err := s.Pool.Query(ctx, `SELECT `+bodyMassCols+` FROM body_mass WHERE client_id = $1
-		ORDER BY measured_on DESC, id DESC`, clientID)
+	rows, err := s.Pool.Query(ctx, listBodyMassSQL, clientID)
 	if err != nil {
 		return nil, err
 	}

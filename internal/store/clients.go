@@ -128,10 +128,12 @@ func (s *Store) ListClients(ctx context.Context, f ClientFilter) ([]ClientRow, e
 	})
 }
 
+const clientByIDSQL = `SELECT ` + clientCols + ` FROM clients c WHERE c.id = $1`
+
 // ClientByID loads one client, archived or not.
 func (s *Store) ClientByID(ctx context.Context, id int64) (Client, error) {
 	var c Client
-	err := s.Pool.QueryRow(ctx, `SELECT `+clientCols+` FROM clients c WHERE c.id = $1`, id).Scan(clientDest(&c)...)
+	err := s.Pool.QueryRow(ctx, clientByIDSQL, id).Scan(clientDest(&c)...)
 	return c, notFound(err)
 }
 

@@ -20,11 +20,13 @@ type DietaryNeeds struct {
 // Confirmed tells whether a dietitian has saved the needs at least once.
 func (d DietaryNeeds) Confirmed() bool { return d.ConfirmedAt != nil }
 
+const dietaryNeedsSQL = `SELECT dietary_needs, dietary_needs_other, dietary_needs_confirmed_at, dietary_needs_revision
+	FROM clients WHERE id = $1`
+
 // ClientDietaryNeeds loads a client's dietary needs.
 func (s *Store) ClientDietaryNeeds(ctx context.Context, clientID int64) (DietaryNeeds, error) {
 	var d DietaryNeeds
-	err := s.Pool.QueryRow(ctx, `SELECT dietary_needs, dietary_needs_other, dietary_needs_confirmed_at, dietary_needs_revision
-		FROM clients WHERE id = $1`, clientID).Scan(&d.Codes, &d.Other, &d.ConfirmedAt, &d.Revision)
+	err := s.Pool.QueryRow(ctx, dietaryNeedsSQL, clientID).Scan(&d.Codes, &d.Other, &d.ConfirmedAt, &d.Revision)
 	return d, notFound(err)
 }
 

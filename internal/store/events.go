@@ -46,6 +46,8 @@ func (e Event) LocalStart() time.Time { return e.StartsAt.In(e.Location()) }
 
 const eventCols = `id, client_id, name, starts_at, time_zone, modality, distance_km::float8, expected_duration_min, days, priority, notes, created_at, segments, stages`
 
+const listEventsSQL = `SELECT ` + eventCols + ` FROM events WHERE client_id = $1 ORDER BY starts_at, id`
+
 func scanEvent(row pgx.Row) (Event, error) {
 	var e Event
 	err := row.Scan(&e.ID, &e.ClientID, &e.Name, &e.StartsAt, &e.TimeZone, &e.Modality, &e.DistanceKm,
@@ -55,7 +57,7 @@ func scanEvent(row pgx.Row) (Event, error) {
 
 // ListEvents lists a client's events, soonest first.
 func (s *Store) ListEvents(ctx context.Context, clientID int64) ([]Event, error) {
-	rows, err := s.Pool.Query(ctx, `SELECT `+eventCols+` FROM events WHERE client_id = $1 ORDER BY starts_at, id`, clientID)
+	rows, err := s.Pool.Query(ctx, listEventsSQL, clientID)
 	if err != nil {
 		return nil, err
 	}

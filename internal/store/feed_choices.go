@@ -49,15 +49,26 @@ func computedSuggestionsOf(ctx context.Context, q querier, versionID int64) (map
 // also a feed of a day (the same time) show that day feed's choice, so a
 // feed listed twice still has one food plan.
 func suggestionsOf(ctx context.Context, q querier, versionID int64) (map[string]string, error) {
-	rows, err := q.Query(ctx, `SELECT f.kind, f.on_date::text, f.feed_index, f.at, f.suggestion,
-			c.id IS NOT NULL, coalesce(c.free, false), coalesce(c.food_id, 0), coalesce(c.name, ''),
-			coalesce(c.amount_g, 0)::float8, coalesce(c.unit, 'g'), coalesce(c.cho_g, 0)::float8, coalesce(c.protein_g, 0)::float8
-		FROM plan_feeds f LEFT JOIN plan_feed_choices c ON c.plan_version_id = f.plan_version_id
-			AND c.kind = f.kind AND c.on_date = f.on_date AND c.feed_index = f.feed_index
-		WHERE f.plan_version_id = $1 ORDER BY f.kind, f.on_date, f.feed_index, c.line`, versionID)
+	rows, err := q.Query(ctx, feedPlansSelect+`WHERE f.plan_version_id = $1`+feedPlansOrder, versionID)
 	if err != nil {
 		return nil, err
 	}
+	return collectFeedPlans(rows)
+}
+
+// feedPlansSelect, a WHERE on f (plan_feeds) and feedPlansOrder read the
+// rows collectFeedPlans turns into food plans by feed.
+const (
+	feedPlansSelect = `SELECT f.kind, f.on_date::text, f.feed_index, f.at, f.suggestion,
+			c.id IS NOT NULL, coalesce(c.free, false), coalesce(c.food_id, 0), coalesce(c.name, ''),
+			coalesce(c.amount_g, 0)::float8, coalesce(c.unit, 'g'), coalesce(c.cho_g, 0)::float8, coalesce(c.protein_g, 0)::float8
+		FROM plan_feeds f LEFT JOIN plan_feed_choices c ON c.plan_version_id = f.plan_version_id
+			AND c.kind = f.kind AND c.on_date = f.on_date AND c.feed_index = f.feed_index `
+	feedPlansOrder = ` ORDER BY f.kind, f.on_date, f.feed_index, c.line`
+)
+
+// collectFeedPlans is suggestionsOf's reading of its rows.
+func collectFeedPlans(rows pgx.Rows) (map[string]string, error) {
 	defer rows.Close()
 	type feed struct {
 		kind  string

@@ -97,43 +97,55 @@ func (s *Store) scanListedVersion(ctx context.Context, row pgx.Row) (PlanVersion
 // PlanVersions lists a plan's versions, newest first. The content of
 // published and superseded versions is shared with the cache: read it only.
 func (s *Store) PlanVersions(ctx context.Context, planID int64) ([]PlanVersion, error) {
-	rows, err := s.Pool.Query(ctx, `SELECT `+versionListCols+versionFrom+`WHERE v.plan_id = $1 ORDER BY v.version DESC`, planID)
+	rows, err := s.Pool.Query(ctx, planVersionsSQL, planID)
 	if err != nil {
 		return nil, err
 	}
 	// Collect first: a cache miss queries again, which a pool connection
 	// still busy with these rows cannot do.
-	var out []PlanVersion
-	var frozen []int
+	out, frozen, err := collectListedVersions(rows)
+	if err != nil {
+		return nil, err
+	}
+	return out, s.fillFrozen(ctx, out, frozen)
+}
+
+var planVersionsSQL = `SELECT ` + versionListCols + versionFrom + `WHERE v.plan_id = $1 ORDER BY v.version DESC`
+
+// collectListedVersions reads rows of versionListCols, decoding drafts;
+// frozen holds the indexes of the versions whose content is still to come
+// from the cache (fillFrozen).
+func collectListedVersions(rows pgx.Rows) (out []PlanVersion, frozen []int, err error) {
+	defer rows.Close()
 	for rows.Next() {
 		var v PlanVersion
 		var req, res []byte
 		if err := rows.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
 			&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt, &v.Notes); err != nil {
-			rows.Close()
-			return nil, err
+			return nil, nil, err
 		}
 		if v.Status == PlanDraft {
 			if err := decodeContent(&v, req, res); err != nil {
-				rows.Close()
-				return nil, err
+				return nil, nil, err
 			}
 		} else {
 			frozen = append(frozen, len(out))
 		}
 		out = append(out, v)
 	}
-	if err := rows.Err(); err != nil {
-		return nil, err
-	}
+	return out, frozen, rows.Err()
+}
+
+// fillFrozen sets the content of the frozen versions out[i], i in frozen.
+func (s *Store) fillFrozen(ctx context.Context, out []PlanVersion, frozen []int) error {
 	for _, i := range frozen {
 		fv, err := s.FrozenVersionByID(ctx, out[i].ID)
 		if err != nil {
-			return nil, err
+			return err
 		}
 		out[i].Request, out[i].Result = fv.Version.Request, fv.Version.Result
 	}
-	return out, nil
+	return nil
 }
 
 // PlanVersion loads version number `number` of a plan.

@@ -71,7 +71,12 @@ func (s *Store) CreateClientLink(ctx context.Context, actor Actor, l *ClientLink
 
 // ClientLinks lists a client's links, newest first.
 func (s *Store) ClientLinks(ctx context.Context, clientID int64) ([]ClientLink, error) {
-	rows, err := s.Pool.Query(ctx, `SELECT `+linkCols+linkFrom+`WHERE l.client_id = $1 ORDER BY l.created_at DESC, l.id DESC`, clientID)
+	return collectLinks(s.Pool.Query(ctx, clientLinksSQL, clientID))
+}
+
+const clientLinksSQL = `SELECT ` + linkCols + linkFrom + `WHERE l.client_id = $1 ORDER BY l.created_at DESC, l.id DESC`
+
+func collectLinks(rows pgx.Rows, err error) ([]ClientLink, error) {
 	if err != nil {
 		return nil, err
 	}

@@ -360,22 +360,29 @@ func (s *Store) NewVersionWith(ctx context.Context, actor Actor, planID int64, f
 	return v, err
 }
 
+const planByIDSQL = `SELECT ` + planCols + ` FROM plans p WHERE p.client_id = $1 AND p.id = $2`
+
 // PlanByID loads a plan of a client.
 func (s *Store) PlanByID(ctx context.Context, clientID, id int64) (Plan, error) {
 	var p Plan
-	err := s.Pool.QueryRow(ctx, `SELECT `+planCols+` FROM plans p WHERE p.client_id = $1 AND p.id = $2`, clientID, id).Scan(planDest(&p)...)
+	err := s.Pool.QueryRow(ctx, planByIDSQL, clientID, id).Scan(planDest(&p)...)
 	return p, notFound(err)
 }
 
 // ListPlans lists a client's plans (all clients when clientID is 0), most
 // recently changed first, with their latest and published version numbers.
 func (s *Store) ListPlans(ctx context.Context, clientID int64) ([]PlanRow, error) {
-	rows, err := s.Pool.Query(ctx, `SELECT `+planCols+`, c.name, lv.version, lv.status, pv.version, p.updated_at
-		FROM plans p JOIN clients c ON c.id = p.client_id
-		JOIN LATERAL (SELECT version, status FROM plan_versions WHERE plan_id = p.id ORDER BY version DESC LIMIT 1) lv ON true
-		LEFT JOIN plan_versions pv ON pv.plan_id = p.id AND pv.status = 'published'
-		WHERE $1 = 0 OR p.client_id = $1
-		ORDER BY p.updated_at DESC, p.id DESC`, clientID)
+	return collectPlanRows(s.Pool.Query(ctx, listPlansSQL, clientID))
+}
+
+const listPlansSQL = `SELECT ` + planCols + `, c.name, lv.version, lv.status, pv.version, p.updated_at
+	FROM plans p JOIN clients c ON c.id = p.client_id
+	JOIN LATERAL (SELECT version, status FROM plan_versions WHERE plan_id = p.id ORDER BY version DESC LIMIT 1) lv ON true
+	LEFT JOIN plan_versions pv ON pv.plan_id = p.id AND pv.status = 'published'
+	WHERE $1 = 0 OR p.client_id = $1
+	ORDER BY p.updated_at DESC, p.id DESC`
+
+func collectPlanRows(rows pgx.Rows, err error) ([]PlanRow, error) {
 	if err != nil {
 		return nil, err
 	}

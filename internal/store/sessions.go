@@ -43,11 +43,17 @@ func (s *Store) StartSession(ctx context.Context, userID int64, expires time.Tim
 }
 
 // SessionUser loads the user of a session: ErrNotFound when the session has
-// been ended (password change, sign-out elsewhere) or has run out.
-func (s *Store) SessionUser(ctx context.Context, userID, sessionID int64) (User, error) {
-	return scanUser(s.Pool.QueryRow(ctx, `SELECT `+prefixed("u.", userCols)+` FROM users u
+// been ended (password change, sign-out elsewhere) or has run out. The
+// practice's name comes in the same round trip, since every staff page
+// shows it in its header.
+func (s *Store) SessionUser(ctx context.Context, userID, sessionID int64) (u User, practiceName string, err error) {
+	err = s.Pool.QueryRow(ctx, `SELECT `+prefixed("u.", userCols)+`,
+			coalesce((SELECT value FROM settings WHERE key = $3), $4)
+		FROM users u
 		JOIN staff_sessions ss ON ss.user_id = u.id
-		WHERE u.id = $1 AND ss.id = $2 AND ss.expires_at > now()`, userID, sessionID))
+		WHERE u.id = $1 AND ss.id = $2 AND ss.expires_at > now()`, userID, sessionID, SettingPracticeName, DefaultPracticeName).
+		Scan(&u.ID, &u.Email, &u.Name, &u.PasswordHash, &u.Role, &u.Disabled, &u.CreatedAt, &practiceName)
+	return u, practiceName, notFound(err)
 }
 
 // prefixed qualifies each column of a comma-separated list with p.

@@ -140,6 +140,14 @@ func scanTraining(row pgx.Row) (TrainingSession, error) {
 	return t, notFound(err)
 }
 
+const (
+	listTrainingSQL = `SELECT ` + trainingCols + ` FROM training_sessions WHERE client_id = $1
+		ORDER BY on_date DESC, start_time DESC NULLS LAST, id DESC`
+	trainingBetweenSQL = `SELECT ` + trainingCols + ` FROM training_sessions
+		WHERE client_id = $1 AND on_date BETWEEN $2::date AND $3::date
+		ORDER BY on_date, start_time NULLS FIRST, id`
+)
+
 func collectTraining(rows pgx.Rows, err error) ([]TrainingSession, error) {
 	if err != nil {
 		return nil, err
@@ -149,16 +157,13 @@ func collectTraining(rows pgx.Rows, err error) ([]TrainingSession, error) {
 
 // ListTraining lists a client's training log, newest first.
 func (s *Store) ListTraining(ctx context.Context, clientID int64) ([]TrainingSession, error) {
-	return collectTraining(s.Pool.Query(ctx, `SELECT `+trainingCols+` FROM training_sessions WHERE client_id = $1
-		ORDER BY on_date DESC, start_time DESC NULLS LAST, id DESC`, clientID))
+	return collectTraining(s.Pool.Query(ctx, listTrainingSQL, clientID))
 }
 
 // TrainingBetween lists a client's sessions from one date to another
 // (both included), oldest first — the order a plan reads them in.
 func (s *Store) TrainingBetween(ctx context.Context, clientID int64, from, to time.Time) ([]TrainingSession, error) {
-	return collectTraining(s.Pool.Query(ctx, `SELECT `+trainingCols+` FROM training_sessions
-		WHERE client_id = $1 AND on_date BETWEEN $2::date AND $3::date
-		ORDER BY on_date, start_time NULLS FIRST, id`, clientID, from.Format(time.DateOnly), to.Format(time.DateOnly)))
+	return collectTraining(s.Pool.Query(ctx, trainingBetweenSQL, clientID, from.Format(time.DateOnly), to.Format(time.DateOnly)))
 }
 
 // TrainingByID loads one session of a client.
