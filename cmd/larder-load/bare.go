@@ -9,7 +9,7 @@ import (
 	"net/http"
 	"time"
 
-	"github.com/jackc/pgx/v5/pgxpool"
+	"larder/internal/store"
 )
 
 // runBare is the yardstick: a plain net/http handler that makes one pgx
@@ -20,11 +20,12 @@ func runBare(args []string, stderr io.Writer) int {
 	fs := flag.NewFlagSet("bare", flag.ContinueOnError)
 	addr := fs.String("addr", "127.0.0.1:8117", "where to listen")
 	dsn := fs.String("dsn", "", "database to query")
+	maxConns := fs.Int("db-max-conns", int(store.DefaultMaxConns()), "pool size, the app's")
 	if err := fs.Parse(args); err != nil {
 		return 2
 	}
 	ctx := context.Background()
-	pool, err := pgxpool.New(ctx, *dsn)
+	pool, err := store.OpenPool(ctx, *dsn, store.PoolOptions{MaxConns: int32(*maxConns)})
 	if err != nil {
 		fmt.Fprintln(stderr, "bare:", err)
 		return 1

@@ -25,10 +25,13 @@ import (
 	"os/signal"
 	"path/filepath"
 	"runtime"
+	"strconv"
 	"strings"
 	"syscall"
 	"text/tabwriter"
 	"time"
+
+	"larder/internal/store"
 )
 
 func main() {
@@ -70,7 +73,12 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	pairs := fs.Int("pairs", 3, "interleaved bare/page pairs per page")
 	larder := fs.String("larder", "", "larder binary to start (default: go build ./cmd/larder)")
 	only := fs.String("only", "", "load only the page whose name contains this")
+	maxConns := fs.Int("db-max-conns", int(store.DefaultMaxConns()), "database pool size of the app (its --db-max-conns) and of the bare handler alike; the default is the app's own for this machine")
 	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	if *maxConns < 1 {
+		fmt.Fprintln(stderr, "larder-load: --db-max-conns must be at least 1")
 		return 2
 	}
 	fail := func(what string, err error) int {
@@ -109,13 +117,14 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	password := hex.EncodeToString(pw)
 	appBase := fmt.Sprintf("http://127.0.0.1:%d", *appPort)
 	bareURL := fmt.Sprintf("http://127.0.0.1:%d/", *barePort)
-	app, err := start(bin, []string{"serve", "--addr", fmt.Sprintf("127.0.0.1:%d", *appPort), "--demo", "--password", password},
+	pool := strconv.Itoa(*maxConns)
+	app, err := start(bin, []string{"serve", "--addr", fmt.Sprintf("127.0.0.1:%d", *appPort), "--demo", "--password", password, "--db-max-conns", pool},
 		[]string{"DATABASE_URL=" + dsn}, logf)
 	if err != nil {
 		return fail("start app", err)
 	}
 	defer app.stop()
-	bare, err := start(self, []string{"bare", "--addr", fmt.Sprintf("127.0.0.1:%d", *barePort), "--dsn", dsn}, nil, logf)
+	bare, err := start(self, []string{"bare", "--addr", fmt.Sprintf("127.0.0.1:%d", *barePort), "--dsn", dsn, "--db-max-conns", pool}, nil, logf)
 	if err != nil {
 		return fail("start bare handler", err)
 	}
@@ -131,7 +140,11 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		return fail("prepare", err)
 	}
 
-	fmt.Fprintf(stdout, "larder-load: %d CPU, %s per run, %d pairs, loopback; app log %s\n\n", runtime.NumCPU(), *duration, *pairs, logf.Name())
+	fmt.Fprintf(stdout, "larder-load: %d CPU, %s per run, %d pairs, loopback, database pool %d connections (app and bare handler); app log %s\n", runtime.NumCPU(), *duration, *pairs, *maxConns, logf.Name())
+	if la, err := os.ReadFile("/proc/loadavg"); err == nil {
+		fmt.Fprintf(stdout, "load average before the run: %s\n", strings.Join(strings.Fields(string(la))[:3], " "))
+	}
+	fmt.Fprintln(stdout)
 	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', tabwriter.AlignRight)
 	fmt.Fprintln(tw, "page\tconns\treq/s\tp50 ms\tp99 ms\terrors\tbare req/s\tbare p99 ms\tratio\t")
 	for _, p := range pages {
@@ -151,6 +164,9 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	tw.Flush()
 	rss, peak := app.memory()
 	fmt.Fprintf(stdout, "\napp memory: %.0f MB resident now, %.0f MB peak\n", rss, peak)
+	if la, err := os.ReadFile("/proc/loadavg"); err == nil {
+		fmt.Fprintf(stdout, "load average after the run: %s\n", strings.Join(strings.Fields(string(la))[:3], " "))
+	}
 	return 0
 }
 
