@@ -382,12 +382,11 @@ func (s *Server) saveFeedFood(w http.ResponseWriter, r *http.Request) {
 // placeFoodChoices adds to the plan page what belongs to the dietitian's
 // food choices: on a draft, each feed's link to decide its food (a feed
 // shown twice links to the day feed whose food it shows); on any version,
-// the checks of each saved choice beside its feed.
-func (s *Server) placeFoodChoices(ctx context.Context, pv *web.PlanView, c store.Client, p store.Plan, v store.PlanVersion) error {
-	choices, err := s.Store.FeedChoices(ctx, v.ID)
-	if err != nil {
-		return err
-	}
+// the checks of each saved choice beside its feed. choices are the
+// version's saved choices (Store.FeedChoices), read with the page.
+func (s *Server) placeFoodChoices(ctx context.Context, pv *web.PlanView, c store.Client, p store.Plan, v store.PlanVersion,
+	choices map[string][]menu.ChoiceLine) error {
+	var err error
 	if len(choices) == 0 && v.Status != store.PlanDraft {
 		return nil
 	}

@@ -153,12 +153,14 @@ func (s *Server) showPlanVersion(w http.ResponseWriter, r *http.Request) {
 		versions []store.PlanVersion
 		needs    store.DietaryNeeds
 		stored   map[string]string
+		choices  map[string][]menu.ChoiceLine
 	)
 	rd.Client(clientID, &c)
 	rd.Plan(clientID, planID, &p)
 	rd.PlanVersions(planID, &versions)
 	rd.DietaryNeeds(clientID, &needs)
 	rd.DraftSuggestions(planID, n, &stored)
+	rd.FeedChoices(planID, n, &choices)
 	if err := s.Store.Read(r.Context(), &rd); err != nil {
 		s.StoreError(w, r, err)
 		return
@@ -175,7 +177,7 @@ func (s *Server) showPlanVersion(w http.ResponseWriter, r *http.Request) {
 			return
 		}
 	}
-	s.renderPlanWith(w, r, http.StatusOK, c, p, v, versions, versionValues(v), "", stored, needs)
+	s.renderPlanWith(w, r, http.StatusOK, c, p, v, versions, versionValues(v), "", planReads{stored: stored, needs: needs, choices: choices})
 }
 
 func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, c store.Client, p store.Plan, v store.PlanVersion,
@@ -190,16 +192,29 @@ func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, 
 		s.ServerError(w, r, err)
 		return
 	}
-	s.renderPlanWith(w, r, status, c, p, v, versions, f, notice, stored, needs)
+	choices, err := s.Store.FeedChoices(r.Context(), v.ID)
+	if err != nil {
+		s.ServerError(w, r, err)
+		return
+	}
+	s.renderPlanWith(w, r, status, c, p, v, versions, f, notice, planReads{stored: stored, needs: needs, choices: choices})
 }
 
-// renderPlanWith is renderPlan with the version's stored food suggestions
-// and the client's dietary needs already read.
+// planReads is what a plan page shows beside the version itself: the food
+// plan of each feed, the client's dietary needs and the dietitian's food
+// choices.
+type planReads struct {
+	stored  map[string]string
+	needs   store.DietaryNeeds
+	choices map[string][]menu.ChoiceLine
+}
+
+// renderPlanWith is renderPlan with what it reads already read.
 func (s *Server) renderPlanWith(w http.ResponseWriter, r *http.Request, status int, c store.Client, p store.Plan, v store.PlanVersion,
-	versions []store.PlanVersion, f forms.Form, notice string, stored map[string]string, needs store.DietaryNeeds) {
-	opts := menu.OptionsForClient(c.Cautions, needs.Codes, needs.Confirmed())
-	pv := s.planView(c, p, v, versions, stored)
-	if err := s.placeFoodChoices(r.Context(), &pv, c, p, v); err != nil {
+	versions []store.PlanVersion, f forms.Form, notice string, pr planReads) {
+	opts := menu.OptionsForClient(c.Cautions, pr.needs.Codes, pr.needs.Confirmed())
+	pv := s.planView(c, p, v, versions, pr.stored)
+	if err := s.placeFoodChoices(r.Context(), &pv, c, p, v, pr.choices); err != nil {
 		s.ServerError(w, r, err)
 		return
 	}

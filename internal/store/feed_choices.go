@@ -125,12 +125,24 @@ func collectFeedPlans(rows pgx.Rows) (map[string]string, error) {
 
 // FeedChoices loads the dietitian's food choices of a version, by FeedKey.
 func (s *Store) FeedChoices(ctx context.Context, versionID int64) (map[string][]menu.ChoiceLine, error) {
-	rows, err := s.Pool.Query(ctx, `SELECT kind, on_date::text, feed_index, free, coalesce(food_id, 0), name,
-			coalesce(amount_g, 0)::float8, unit, cho_g::float8, protein_g::float8
-		FROM plan_feed_choices WHERE plan_version_id = $1 ORDER BY kind, on_date, feed_index, line`, versionID)
+	rows, err := s.Pool.Query(ctx, feedChoicesSelect+`WHERE plan_version_id = $1`+feedChoicesOrder, versionID)
 	if err != nil {
 		return nil, err
 	}
+	return collectFeedChoices(rows)
+}
+
+// feedChoicesSelect, a WHERE and feedChoicesOrder read the rows
+// collectFeedChoices gathers by feed.
+const (
+	feedChoicesSelect = `SELECT kind, on_date::text, feed_index, free, coalesce(food_id, 0), name,
+			coalesce(amount_g, 0)::float8, unit, cho_g::float8, protein_g::float8
+		FROM plan_feed_choices `
+	feedChoicesOrder = ` ORDER BY kind, on_date, feed_index, line`
+)
+
+// collectFeedChoices is FeedChoices' reading of its rows.
+func collectFeedChoices(rows pgx.Rows) (map[string][]menu.ChoiceLine, error) {
 	defer rows.Close()
 	out := map[string][]menu.ChoiceLine{}
 	for rows.Next() {

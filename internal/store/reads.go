@@ -5,6 +5,8 @@ import (
 	"time"
 
 	"github.com/jackc/pgx/v5"
+
+	"larder/internal/menu"
 )
 
 // Reads gathers independent reads of one page and sends them to the
@@ -137,6 +139,16 @@ func (r *Reads) DraftSuggestions(planID int64, version int, dst *map[string]stri
 	r.rows(feedPlansSelect+`WHERE f.plan_version_id = (SELECT id FROM plan_versions
 		WHERE plan_id = $1 AND version = $2 AND status = 'draft')`+feedPlansOrder, func(rows pgx.Rows) (err error) {
 		*dst, err = collectFeedPlans(rows)
+		return err
+	}, planID, version)
+}
+
+// FeedChoices reads the dietitian's food choices of a plan's version number
+// `version` (FeedChoices).
+func (r *Reads) FeedChoices(planID int64, version int, dst *map[string][]menu.ChoiceLine) {
+	r.rows(feedChoicesSelect+`WHERE plan_version_id = (SELECT id FROM plan_versions
+		WHERE plan_id = $1 AND version = $2)`+feedChoicesOrder, func(rows pgx.Rows) (err error) {
+		*dst, err = collectFeedChoices(rows)
 		return err
 	}, planID, version)
 }
