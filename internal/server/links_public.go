@@ -119,7 +119,7 @@ func planZone(name string) *time.Location {
 	if name == "" {
 		return time.UTC
 	}
-	if loc, err := time.LoadLocation(name); err == nil {
+	if loc, err := zoneByName(name); err == nil {
 		return loc
 	}
 	if t, err := time.Parse("-07:00", name); err == nil {

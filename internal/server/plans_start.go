@@ -147,7 +147,7 @@ func nextEvent(events []store.Event, now time.Time) *store.Event {
 }
 
 func loadZone(name string) *time.Location {
-	if loc, err := time.LoadLocation(name); err == nil && name != "" {
+	if loc, err := zoneByName(name); err == nil && name != "" {
 		return loc
 	}
 	return time.UTC
