@@ -73,3 +73,48 @@ func TestStaffPagesShowChangesAtOnce(t *testing.T) {
 		t.Fatal("version 2's page shows version 1's food suggestion")
 	}
 }
+
+// A draft's page comes from memory kept under the draft's id and revision;
+// a save (here through another Store, as another app server would) and
+// even a change written by hand without counting the revision up show on
+// the next view, and two views of one draft are the same page.
+func TestDraftPageNeverStale(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	other := store.New(a.st.Pool)
+	ctx := context.Background()
+	c := a.newClient(unique("Dora Draft"))
+	p, _ := storePlan(t, a, c.ID, "Draft week", weekRequest("2027-03-01", 3), false, "")
+	page := "/clients/" + itoa(c.ID) + "/plans/" + itoa(p.ID) + "/versions/1"
+	first := b.get(page)
+	if first.status != http.StatusOK {
+		t.Fatalf("draft page: %d", first.status)
+	}
+	if again := b.get(page); again.body != first.body {
+		t.Fatal("a second view of an unchanged draft differs from the first")
+	}
+
+	v, err := other.PlanVersion(ctx, p.ID, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	v.Result.Caution = "SAVED ELSEWHERE CAUTION"
+	sugg, err := other.FeedSuggestions(ctx, v.ID)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := other.SaveDraft(ctx, store.System, v.ID, v.Revision,
+		store.PlanContent{Request: v.Request, Result: v.Result, BodyMassKg: v.BodyMassKg, BodyMassOn: v.BodyMassOn, Suggestions: sugg}); err != nil {
+		t.Fatal(err)
+	}
+	b.get(page).mustContain(t, "SAVED ELSEWHERE CAUTION")
+
+	if _, err := a.st.Pool.Exec(ctx, `UPDATE plan_versions SET result = jsonb_set(result, '{caution}', '"WRITTEN BY HAND CAUTION"') WHERE id = $1`, v.ID); err != nil {
+		t.Fatal(err)
+	}
+	res := b.get(page)
+	res.mustContain(t, "WRITTEN BY HAND CAUTION")
+	if strings.Contains(res.body, "SAVED ELSEWHERE CAUTION") {
+		t.Fatal("the draft page shows the content before the change by hand")
+	}
+}

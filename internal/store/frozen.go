@@ -103,7 +103,7 @@ func (s *Store) PlanVersions(ctx context.Context, planID int64) ([]PlanVersion, 
 	}
 	// Collect first: a cache miss queries again, which a pool connection
 	// still busy with these rows cannot do.
-	out, frozen, err := collectListedVersions(rows)
+	out, frozen, _, err := collectListedVersions(rows)
 	if err != nil {
 		return nil, err
 	}
@@ -112,28 +112,36 @@ func (s *Store) PlanVersions(ctx context.Context, planID int64) ([]PlanVersion, 
 
 var planVersionsSQL = `SELECT ` + versionListCols + versionFrom + `WHERE v.plan_id = $1 ORDER BY v.version DESC`
 
+// planVersionsBareSQL lists a plan's versions without any content: drafts
+// too come from a cache (fillDrafts).
+var planVersionsBareSQL = `SELECT ` + strings.Replace(versionCols, "v.request, v.result,", "NULL::jsonb, NULL::jsonb,", 1) +
+	versionFrom + `WHERE v.plan_id = $1 ORDER BY v.version DESC`
+
 // collectListedVersions reads rows of versionListCols, decoding drafts;
 // frozen holds the indexes of the versions whose content is still to come
-// from the cache (fillFrozen).
-func collectListedVersions(rows pgx.Rows) (out []PlanVersion, frozen []int, err error) {
+// from the cache (fillFrozen). Rows of planVersionsBareSQL carry no draft
+// content either: drafts then holds the drafts' indexes (fillDrafts).
+func collectListedVersions(rows pgx.Rows) (out []PlanVersion, frozen, drafts []int, err error) {
 	defer rows.Close()
 	for rows.Next() {
 		var v PlanVersion
 		var req, res []byte
 		if err := rows.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
 			&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt, &v.Notes); err != nil {
-			return nil, nil, err
+			return nil, nil, nil, err
 		}
-		if v.Status == PlanDraft {
+		if v.Status == PlanDraft && req == nil {
+			drafts = append(drafts, len(out))
+		} else if v.Status == PlanDraft {
 			if err := decodeContent(&v, req, res); err != nil {
-				return nil, nil, err
+				return nil, nil, nil, err
 			}
 		} else {
 			frozen = append(frozen, len(out))
 		}
 		out = append(out, v)
 	}
-	return out, frozen, rows.Err()
+	return out, frozen, drafts, rows.Err()
 }
 
 // fillFrozen sets the content of the frozen versions out[i], i in frozen.

@@ -118,17 +118,23 @@ func (r *Reads) Plan(clientID, id int64, dst *Plan) {
 	r.row(planByIDSQL, func(row pgx.Row) error { return notFound(row.Scan(planDest(dst)...)) }, clientID, id)
 }
 
-// PlanVersions reads a plan's versions, newest first (PlanVersions): a
-// draft's content from the batch, a frozen version's from the cache (read
-// after the batch when it is not there yet).
+// PlanVersions reads a plan's versions, newest first (PlanVersions), for
+// a page to show: their content comes from the caches of frozen versions
+// and of drafts (read after the batch when it is not there yet), and is
+// shared with them: read it, never modify it.
 func (r *Reads) PlanVersions(planID int64, dst *[]PlanVersion) {
-	var frozen []int
-	r.rows(planVersionsSQL, func(rows pgx.Rows) error {
+	var frozen, drafts []int
+	r.rows(planVersionsBareSQL, func(rows pgx.Rows) error {
 		var err error
-		*dst, frozen, err = collectListedVersions(rows)
+		*dst, frozen, drafts, err = collectListedVersions(rows)
 		return err
 	}, planID)
-	r.after = append(r.after, func(ctx context.Context, s *Store) error { return s.fillFrozen(ctx, *dst, frozen) })
+	r.after = append(r.after, func(ctx context.Context, s *Store) error {
+		if err := s.fillFrozen(ctx, *dst, frozen); err != nil {
+			return err
+		}
+		return s.fillDrafts(ctx, *dst, drafts)
+	})
 }
 
 // DraftSuggestions reads the food plan of each feed (FeedSuggestions: the

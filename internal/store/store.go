@@ -20,13 +20,15 @@ type Store struct {
 	// frozen keeps decoded published versions (see FrozenVersionByID);
 	// nil (a Store made without New) caches nothing.
 	frozen *frozenCache
+	// drafts keeps decoded drafts by id and revision (see fillDrafts).
+	drafts *draftCache
 	// reads writes recorded reads by group commit (see readLog).
 	reads *readLog
 }
 
 // New wraps a connection pool.
 func New(pool *pgxpool.Pool) *Store {
-	return &Store{Pool: pool, frozen: newFrozenCache(), reads: &readLog{}}
+	return &Store{Pool: pool, frozen: newFrozenCache(), drafts: newDraftCache(), reads: &readLog{}}
 }
 
 // ErrNotFound is returned when a row asked for by id does not exist (or does
