@@ -193,7 +193,7 @@ func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
 		fillDay(&v, p, today, now)
 	}
 	w.Header().Set("Content-Type", "text/html; charset=utf-8")
-	if err := web.ClientDayPage(v).Render(r.Context(), w); err != nil {
+	if err := writePage(r.Context(), w, http.StatusOK, web.ClientDayPage(v)); err != nil {
 		s.Log.Error("render", "path", "/c/…", "err", err)
 	}
 }

@@ -24,8 +24,7 @@ func (s *Server) Render(w http.ResponseWriter, r *http.Request, status int, titl
 	}
 	w.Header().Set("Content-Type", "text/html; charset=utf-8")
 	w.Header().Set("Cache-Control", "no-store")
-	w.WriteHeader(status)
-	if err := web.Layout(p, body).Render(r.Context(), w); err != nil {
+	if err := writePage(r.Context(), w, status, web.Layout(p, body)); err != nil {
 		s.Log.Error("render", "path", logPath(r), "err", err)
 	}
 }
