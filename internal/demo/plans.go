@@ -26,9 +26,7 @@ func loadDemoPlans(ctx context.Context, st *store.Store, ids IDs) error {
 	}
 	var mf []menu.Food
 	for _, f := range foods {
-		mf = append(mf, menu.Food{ID: f.ID, Name: f.Name, ChoPer100: f.CarbohydrateG, ProtPer100: f.ProteinG, FatPer100: f.FatG,
-			FibrePer100: f.FibreG, PortionName: f.PortionName, PortionG: f.PortionG, Liquid: f.Liquid, Portable: f.Portable,
-			Practice: f.Source == store.SourceLabel, ContainsGluten: f.ContainsGluten, Facts: f.Facts, FactsRecorded: f.FactsRecorded})
+		mf = append(mf, f.Menu())
 	}
 	d := demoPlans{ctx: ctx, st: st, foods: mf, today: today}
 	if id, ok := ids.Clients["marathoner"]; ok {

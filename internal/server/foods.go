@@ -137,12 +137,7 @@ func MenuFoods(foods []store.Food) []menu.Food {
 	return out
 }
 
-func menuFood(f store.Food) menu.Food {
-	return menu.Food{ID: f.ID, Name: f.Name, SourceName: f.SourceName, CookedYield: f.CookedYield, ChoPer100: f.CarbohydrateG, ProtPer100: f.ProteinG,
-		FatPer100: f.FatG, FibrePer100: f.FibreG, PortionName: f.PortionName, PortionG: f.PortionG,
-		Liquid: f.Liquid, Portable: f.Portable, Practice: f.Source == store.SourceLabel, ContainsGluten: f.ContainsGluten,
-		Facts: f.Facts, FactsRecorded: f.FactsRecorded}
-}
+func menuFood(f store.Food) menu.Food { return f.Menu() }
 
 func (s *Server) foodsPage(w http.ResponseWriter, r *http.Request) {
 	showAll := r.URL.Query().Get("show") == "all"

