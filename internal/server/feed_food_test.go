@@ -115,6 +115,15 @@ func TestFeedFoodSwapAndFreeLineKeptAcrossVersions(t *testing.T) {
 	v1 = latestVersion(t, a, pid)
 	b.post(base+"/versions/1", url.Values{"revision": {strconv.Itoa(v1.Revision)}, "action": {"publish"}}).mustRedirect(t, base+"/versions/1")
 	check(v1.ID, "after publishing")
+	// The phone page and the calendar read a published version through
+	// the frozen-version cache: the same text.
+	fv, err := a.st.FrozenVersionByID(ctx, v1.ID)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if fv.Suggestions[key] != want {
+		t.Fatalf("published version as the phone page and calendar read it: %q, want %q", fv.Suggestions[key], want)
+	}
 	if _, err := a.st.Pool.Exec(ctx, `DELETE FROM plan_feed_choices WHERE plan_version_id = $1`, v1.ID); err == nil {
 		t.Fatal("the database let a published version's food choice go")
 	}
