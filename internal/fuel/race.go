@@ -37,7 +37,7 @@ func (p *planner) eventDay(date time.Time, rate float64) dayPlan {
 	de := p.duringEventPlan(rate)
 	p.plan.DuringEvent = de
 	if de.TotalChoG > 0 {
-		fixed = append(fixed, Feed{At: p.evStart, Label: labelDuring, ChoG: de.TotalChoG})
+		fixed = append(fixed, Feed{At: p.feedStart(), Label: labelDuring, ChoG: de.TotalChoG})
 	}
 	blockTo := p.evEnd.Add(time.Duration(gDemandingMin.Max * float64(time.Hour)))
 	if p.ev.ExpectedDurationMin >= gDuringSmall.Min {

@@ -1,6 +1,9 @@
 package fuel
 
-import "math"
+import (
+	"math"
+	"time"
+)
 
 // A multi-sport event is raced leg by leg: each leg has its own energy
 // model (swimming from the oxygen-uptake equation of Kimber 2002, cycling
@@ -219,6 +222,18 @@ func (p *planner) fillSegments(de *DuringEvent) {
 		de.Segments[i] = sp
 	}
 	de.TotalChoG = total
+}
+
+// feedStart is when the in-event feed begins: the start gun, or for an
+// event with legs the start of the first leg where one eats (the bike
+// after the swim and its transition), since its grams are only those legs'.
+func (p *planner) feedStart() time.Time {
+	for _, f := range p.segs {
+		if f.eats() {
+			return p.evStart.Add(time.Duration(math.Round(f.startH*3600)) * time.Second)
+		}
+	}
+	return p.evStart
 }
 
 // segmentRunsOut fills where in each leg the stores would run out with the

@@ -183,7 +183,8 @@ type Day struct {
 type Feed struct {
 	At time.Time `json:"at"`
 	// Label: breakfast, snack, lunch, dinner, supper, pre-event meal,
-	// during event (the in-event total, at the start), recovery, refuel.
+	// during event (the in-event total, at the start, or for an event with
+	// legs at the first leg where one eats), recovery, refuel.
 	Label      string  `json:"label"`
 	ChoG       float64 `json:"cho_g"`
 	ProteinG   float64 `json:"protein_g"`
