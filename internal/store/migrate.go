@@ -25,7 +25,12 @@ func Migrate(ctx context.Context, pool *pgxpool.Pool) (int, error) {
 	if err != nil {
 		return 0, fmt.Errorf("migration lock: %w", err)
 	}
-	provider, err := goose.NewProvider(goose.DialectPostgres, db, migrations.FS, goose.WithSessionLocker(locker))
+	// Out-of-order migrations are applied: work developed in parallel lands
+	// with numbers below ones already applied, and a database that ran the
+	// higher ones first must still take the lower ones rather than refuse
+	// to start. Each migration is written to stand on its own.
+	provider, err := goose.NewProvider(goose.DialectPostgres, db, migrations.FS,
+		goose.WithSessionLocker(locker), goose.WithAllowOutofOrder(true))
 	if err != nil {
 		return 0, fmt.Errorf("migrations: %w", err)
 	}
