@@ -3,6 +3,8 @@ package web
 import (
 	_ "embed"
 
+	"larder/internal/mass"
+
 	"larder/internal/forms"
 )
 
@@ -153,6 +155,8 @@ type PlanView struct {
 
 	BodyMass        string
 	MassName        string // form input names of the body figures on a draft
+	MassUnitName    string
+	MassUnit        mass.Unit // the unit the body mass input is in
 	FatName         string
 	BodyMassWarning string
 	FatFreeMass     string

@@ -238,7 +238,7 @@ func BodyMassForm(c store.Client, m *store.BodyMass, f forms.Form) templ.Compone
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = Input(f, "mass", "Body mass", "text", "20 to 300 kg (44.1 to 661.4 lb). Stored in kg.", templ.Attributes{"required": true, "inputmode": "decimal"}).Render(ctx, templ_7745c5c3_Buffer)
+		templ_7745c5c3_Err = Input(f, "mass", "Body mass", "text", MassRangeHint(), templ.Attributes{"required": true, "inputmode": "decimal"}).Render(ctx, templ_7745c5c3_Buffer)
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}

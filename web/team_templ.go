@@ -298,7 +298,15 @@ func Team(d TeamData) templ.Component {
 				return templ_7745c5c3_Err
 			}
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 32, "</datalist> <button type=\"submit\">Save</button></form></section></div><section><h2>Recent changes in the practice</h2><p><a href=\"/team/reads\">Who opened which client's records</a></p>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 32, "</datalist>")
+		if templ_7745c5c3_Err != nil {
+			return templ_7745c5c3_Err
+		}
+		templ_7745c5c3_Err = Radios(d.Practice, "mass_unit", "Body masses in", []Option{{"kg", "kg"}, {"lb", "lb"}}).Render(ctx, templ_7745c5c3_Buffer)
+		if templ_7745c5c3_Err != nil {
+			return templ_7745c5c3_Err
+		}
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 33, "<p class=\"hint\">For every client who has not chosen a unit of their own: forms, charts, tables, plans, sheets and the athlete’s phone page. Masses are kept in kg; grams of food and g/kg stay as they are.</p><button type=\"submit\">Save</button></form></section></div><section><h2>Recent changes in the practice</h2><p><a href=\"/team/reads\">Who opened which client's records</a></p>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
@@ -306,7 +314,7 @@ func Team(d TeamData) templ.Component {
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 33, "</section>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 34, "</section>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}

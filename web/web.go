@@ -13,7 +13,8 @@ import (
 	"strings"
 	"time"
 
-	"larder/internal/forms"
+	"larder/internal/mass"
+
 	"larder/internal/store"
 )
 
@@ -102,21 +103,17 @@ func RoleLabel(role string) string {
 	return role
 }
 
-// MassText shows a measurement as entered: "68.0 kg", or "150.4 lb (68.2 kg)".
-func MassText(m store.BodyMass) string {
-	if m.EnteredUnit == "lb" {
-		return OneDecimal(forms.KgToLb(m.MassKg)) + " lb (" + OneDecimal(m.MassKg) + " kg)"
-	}
-	return OneDecimal(m.MassKg) + " kg"
+// MassText shows a body mass in the client's unit: "68.2 kg", "150.4 lb".
+func MassText(kg float64, u mass.Unit) string { return mass.Text(kg, u) }
+
+// MassRangeHint states the accepted body mass in both units.
+func MassRangeHint() string {
+	return mass.Span(mass.KG) + ", or " + mass.Span(mass.LB) + ". Kept in kg."
 }
 
-// MassInput is the mass as the form shows it back, in the unit entered.
-func MassInput(m store.BodyMass) string {
-	if m.EnteredUnit == "lb" {
-		return Num(forms.KgToLb(m.MassKg), 1)
-	}
-	return Num(m.MassKg, 2)
-}
+// MassInput is a measurement as its edit form shows it back: in the unit it
+// was typed in, so that saving it unchanged stores the same kg.
+func MassInput(m store.BodyMass) string { return mass.Input(m.MassKg, mass.Unit(m.EnteredUnit)) }
 
 // Age is "34 y", or "—" when the date of birth is not recorded.
 func Age(c store.Client, today time.Time) string {
@@ -192,12 +189,12 @@ func DateIn(t time.Time, zone string) string {
 	return Date(t.In(loc))
 }
 
-// KgPtr formats an optional mass in kg: "58.1 kg", or "—".
-func KgPtr(kg *float64) string {
+// MassPtr formats an optional body mass in unit u: "58.1 kg", or "—".
+func MassPtr(kg *float64, u mass.Unit) string {
 	if kg == nil {
 		return "—"
 	}
-	return OneDecimal(*kg) + " kg"
+	return mass.Text(*kg, u)
 }
 
 // OneDecimal always shows one decimal ("58.0", not "58"), so a column of

@@ -5,12 +5,14 @@ import (
 	"regexp"
 	"testing"
 	"time"
+
+	"larder/internal/mass"
 )
 
 // Pages refuse inline styles (Content-Security-Policy style-src 'self'), so
 // a chart carries its colours and fonts as presentation attributes.
 func TestChartsHaveNoInlineStyle(t *testing.T) {
-	b, err := BodyMassTrend(massSeries(10, time.UTC))
+	b, err := BodyMassTrend(massSeries(10, time.UTC), mass.KG)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -12,6 +12,8 @@ import (
 	"math"
 	"time"
 
+	"larder/internal/mass"
+
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
@@ -45,13 +47,13 @@ type MassPoint struct {
 	Kg float64
 }
 
-// BodyMassTrend draws body mass over time.
-func BodyMassTrend(points []MassPoint) ([]byte, error) {
+// BodyMassTrend draws body mass over time in unit u (the points are in kg).
+func BodyMassTrend(points []MassPoint, u mass.Unit) ([]byte, error) {
 	if len(points) == 0 {
 		return nil, ErrNoData
 	}
 	loc := points[0].On.Location()
-	p := newPlot("Body mass", "date", "kg")
+	p := newPlot("Body mass", "date", string(u))
 	p.X.Tick.Marker = dateTicks(loc, "2 Jan")
 	xys := make(plotter.XYs, len(points))
 	lo, hi := math.Inf(1), math.Inf(-1)
@@ -59,8 +61,9 @@ func BodyMassTrend(points []MassPoint) ([]byte, error) {
 		if !finite(m.Kg) {
 			return nil, fmt.Errorf("chart: body mass %d is not a number", i)
 		}
-		xys[i] = plotter.XY{X: float64(m.On.Unix()), Y: m.Kg}
-		lo, hi = math.Min(lo, m.Kg), math.Max(hi, m.Kg)
+		y := mass.FromKg(m.Kg, u)
+		xys[i] = plotter.XY{X: float64(m.On.Unix()), Y: y}
+		lo, hi = math.Min(lo, y), math.Max(hi, y)
 	}
 	line, pts, err := plotter.NewLinePoints(xys)
 	if err != nil {
@@ -71,7 +74,7 @@ func BodyMassTrend(points []MassPoint) ([]byte, error) {
 	pts.Color = series1
 	pts.Shape = draw.CircleGlyph{}
 	p.Add(line, pts)
-	p.Legend.Add("body mass (kg)", line, pts)
+	p.Legend.Add("body mass ("+string(u)+")", line, pts)
 	// A little room around the data so a flat trend is not drawn as noise.
 	p.Y.Min, p.Y.Max = math.Floor(lo-1), math.Ceil(hi+1+0.25*(hi-lo))
 	if len(points) == 1 {

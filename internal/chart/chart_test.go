@@ -4,12 +4,15 @@ import (
 	"bytes"
 	"encoding/xml"
 	"errors"
-	"gonum.org/v1/plot"
 	"io"
 	"math"
 	"strings"
 	"testing"
 	"time"
+
+	"gonum.org/v1/plot"
+
+	"larder/internal/mass"
 )
 
 // parseSVG checks that b is well-formed XML with an <svg> root and returns
@@ -57,7 +60,7 @@ func massSeries(n int, zone *time.Location) []MassPoint {
 
 func TestBodyMassTrend(t *testing.T) {
 	zone := time.FixedZone("X", 2*3600)
-	b, err := BodyMassTrend(massSeries(10, zone))
+	b, err := BodyMassTrend(massSeries(10, zone), mass.KG)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -70,24 +73,24 @@ func TestBodyMassTrend(t *testing.T) {
 	if paths < 10 {
 		t.Errorf("%d paths, want at least one per measurement", paths)
 	}
-	again, _ := BodyMassTrend(massSeries(10, zone))
+	again, _ := BodyMassTrend(massSeries(10, zone), mass.KG)
 	if !bytes.Equal(b, again) {
 		t.Error("same input drew different bytes")
 	}
 	other := massSeries(10, zone)
 	other[5].Kg = 61
-	if b2, _ := BodyMassTrend(other); bytes.Equal(b, b2) {
+	if b2, _ := BodyMassTrend(other, mass.KG); bytes.Equal(b, b2) {
 		t.Error("changing a measurement did not change the drawing")
 	}
-	if _, err := BodyMassTrend(massSeries(1, zone)); err != nil {
+	if _, err := BodyMassTrend(massSeries(1, zone), mass.KG); err != nil {
 		t.Errorf("one measurement: %v", err)
 	}
-	if _, err := BodyMassTrend(nil); !errors.Is(err, ErrNoData) {
+	if _, err := BodyMassTrend(nil, mass.KG); !errors.Is(err, ErrNoData) {
 		t.Errorf("no data: err = %v", err)
 	}
 	bad := massSeries(3, zone)
 	bad[1].Kg = math.NaN()
-	if _, err := BodyMassTrend(bad); err == nil {
+	if _, err := BodyMassTrend(bad, mass.KG); err == nil {
 		t.Error("NaN body mass drawn without error")
 	}
 }

@@ -109,19 +109,6 @@ func TestParseLocalDateTime(t *testing.T) {
 	}
 }
 
-func TestPounds(t *testing.T) {
-	// 1 lb = 0.45359237 kg exactly (International Yard and Pound Agreement, 1959; common practice).
-	if got := LbToKg(100); math.Abs(got-45.359237) > 1e-9 {
-		t.Fatalf("100 lb = %v kg", got)
-	}
-	if got := Round(KgToLb(300), 1); got != 661.4 {
-		t.Fatalf("300 kg = %v lb", got)
-	}
-	if got := Round(KgToLb(20), 1); got != 44.1 {
-		t.Fatalf("20 kg = %v lb", got)
-	}
-}
-
 // FuzzDecode feeds arbitrary query strings to Decode: it must never panic,
 // must key every error by a field of the form, and anything it accepts must
 // respect the limits in the tags.

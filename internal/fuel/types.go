@@ -54,7 +54,7 @@ type Request struct {
 // Athlete holds the body figures the equations need.
 type Athlete struct {
 	Sex           string   `json:"sex" validate:"required,oneof=female male"`
-	BodyMassKg    float64  `json:"body_mass_kg" validate:"required,gte=25,lte=250"`
+	BodyMassKg    float64  `json:"body_mass_kg" validate:"required"` // range: mass.MinKg–MaxKg, checked by hand
 	HeightCm      *float64 `json:"height_cm,omitempty" validate:"omitempty,gte=120,lte=230"`
 	BodyFatPct    *float64 `json:"body_fat_pct,omitempty" validate:"omitempty,gte=3,lte=60"`
 	VO2maxMlKgMin *float64 `json:"vo2max_ml_kg_min,omitempty" validate:"omitempty,gte=20,lte=95"`

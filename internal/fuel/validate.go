@@ -13,6 +13,8 @@ import (
 	"time"
 	_ "time/tzdata" // time_zone must resolve the same on every host
 
+	"larder/internal/mass"
+
 	"github.com/go-playground/validator/v10"
 )
 
@@ -257,6 +259,10 @@ func (r Request) handChecks() ValidationError {
 	var out ValidationError
 	add := func(field, msg string) { out = append(out, FieldError{Field: field, Message: msg}) }
 
+	// The body-mass range is the one every form and the database use.
+	if m := r.Athlete.BodyMassKg; m != 0 && !mass.InRange(m) {
+		add("athlete.body_mass_kg", "must be from "+mass.Span(mass.KG))
+	}
 	if r.Event != nil && r.Event.StartsAt.IsZero() {
 		add("event.starts_at", "is required")
 	}

@@ -25,7 +25,7 @@ func TestValidateNamesFieldsInPlainWords(t *testing.T) {
 	}{
 		{"kind", func(r *Request) { r.Kind = "sprint" }, "kind", "must be one of: loading, race, repletion, week"},
 		{"sex", func(r *Request) { r.Athlete.Sex = "" }, "athlete.sex", "is required"},
-		{"mass low", func(r *Request) { r.Athlete.BodyMassKg = 12 }, "athlete.body_mass_kg", "must be at least 25 kg"},
+		{"mass low", func(r *Request) { r.Athlete.BodyMassKg = 12 }, "athlete.body_mass_kg", "must be from 20 to 300 kg"},
 		{"body fat", func(r *Request) { r.Athlete.BodyFatPct = ptr(80.0) }, "athlete.body_fat_pct", "must be at most 60 %"},
 		{"modality", func(r *Request) { r.Event.Modality = "chess" }, "event.modality", "must be one of:"},
 		{"duration", func(r *Request) { r.Event.ExpectedDurationMin = 0 }, "event.expected_duration_min", "is required"},

@@ -176,7 +176,7 @@ func TestRowErrorsNameLineColumnAndReason(t *testing.T) {
 	want := []Problem{
 		{3, "date", "is not a day of the calendar"},
 		{4, "mass", "is not a number of kg or lb"},
-		{5, "mass", "outside 20–300 kg"},
+		{5, "mass", "outside 20 to 300 kg"},
 		{6, "body fat %", "outside 2–60"},
 		{7, "date", "The date is missing"},
 		{8, "mass", "is not a number of kg or lb"},

@@ -6,11 +6,9 @@ import (
 	"strconv"
 	"strings"
 	"time"
-)
 
-// KgPerLb is the international avoirdupois pound (International Yard and
-// Pound Agreement, 1959).
-const KgPerLb = 0.45359237
+	"larder/internal/mass"
+)
 
 // KmPerMile is the international mile, 1609.344 m exactly.
 const KmPerMile = 1.609344
@@ -83,14 +81,11 @@ func parseMass(s, defUnit string) (kg float64, unit string, err error) {
 			return 0, "", errors.New("is not a number of kg or lb")
 		}
 	}
-	if unit == "lb" {
-		v *= KgPerLb
+	kg, ok := mass.Check(v, mass.Unit(unit))
+	if !ok {
+		return 0, "", errors.New("is outside " + mass.RangeText(mass.Unit(unit)) + "; check the number and the unit")
 	}
-	v = math.Round(v*100) / 100
-	if v < 20 || v > 300 {
-		return 0, "", errors.New("is outside 20–300 kg (44–661 lb); check the number and the unit")
-	}
-	return v, unit, nil
+	return kg, unit, nil
 }
 
 // isoDate matches 2026-03-01, optionally followed by a time.

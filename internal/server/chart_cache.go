@@ -8,6 +8,8 @@ import (
 	"math"
 	"time"
 
+	"larder/internal/mass"
+
 	lru "github.com/hashicorp/golang-lru/v2"
 
 	"larder/internal/chart"
@@ -77,13 +79,13 @@ func (s *Server) drawn(k chartKey, draw func() ([]byte, error)) ([]byte, error) 
 
 // bodyMassSVG draws the trend of pts, or returns the same drawing made
 // before from equal points.
-func (s *Server) bodyMassSVG(pts []chart.MassPoint) ([]byte, error) {
-	k := newChartKey("body-mass")
+func (s *Server) bodyMassSVG(pts []chart.MassPoint, u mass.Unit) ([]byte, error) {
+	k := newChartKey("body-mass-" + string(u))
 	for _, p := range pts {
 		k.num(float64(p.On.UnixNano()))
 		k.num(p.Kg)
 	}
-	return s.drawn(k, func() ([]byte, error) { return chart.BodyMassTrend(pts) })
+	return s.drawn(k, func() ([]byte, error) { return chart.BodyMassTrend(pts, u) })
 }
 
 // gPerKgSVG draws the plan's daily g/kg bars (a pure function of days).

@@ -5,6 +5,8 @@ import (
 	"testing"
 	"time"
 
+	"larder/internal/mass"
+
 	"larder/internal/chart"
 )
 
@@ -14,21 +16,21 @@ func TestBodyMassChartCacheFollowsThePoints(t *testing.T) {
 	s := &Server{charts: newChartCache()}
 	d := time.Date(2027, 2, 1, 0, 0, 0, 0, time.UTC)
 	pts := []chart.MassPoint{{On: d, Kg: 64.2}, {On: d.AddDate(0, 0, 7), Kg: 64.0}, {On: d.AddDate(0, 0, 14), Kg: 63.8}}
-	first, err := s.bodyMassSVG(pts)
+	first, err := s.bodyMassSVG(pts, mass.KG)
 	if err != nil {
 		t.Fatal(err)
 	}
-	again, err := s.bodyMassSVG(pts)
+	again, err := s.bodyMassSVG(pts, mass.KG)
 	if err != nil || !bytes.Equal(first, again) || s.charts.Len() != 1 {
 		t.Fatalf("equal points drew anew or differently (kept %d)", s.charts.Len())
 	}
 	edited := append([]chart.MassPoint(nil), pts...)
 	edited[2].Kg = 66.5
-	got, err := s.bodyMassSVG(edited)
+	got, err := s.bodyMassSVG(edited, mass.KG)
 	if err != nil {
 		t.Fatal(err)
 	}
-	want, err := chart.BodyMassTrend(edited)
+	want, err := chart.BodyMassTrend(edited, mass.KG)
 	if err != nil {
 		t.Fatal(err)
 	}

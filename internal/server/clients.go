@@ -25,7 +25,12 @@ func (s *Server) clientList(w http.ResponseWriter, r *http.Request) {
 }
 
 func (s *Server) clientNewPage(w http.ResponseWriter, r *http.Request) {
-	s.Render(w, r, http.StatusOK, "New client", "clients", web.ClientForm(web.ClientFormData{Form: forms.New()}))
+	s.clientFormPage(w, r, http.StatusOK, "New client", web.ClientFormData{Form: forms.New()})
+}
+
+func (s *Server) clientFormPage(w http.ResponseWriter, r *http.Request, status int, title string, d web.ClientFormData) {
+	d.PracticeUnit = s.PracticeMassUnit(r)
+	s.Render(w, r, status, title, "clients", web.ClientForm(d))
 }
 
 func (s *Server) clientCreate(w http.ResponseWriter, r *http.Request) {
@@ -36,7 +41,7 @@ func (s *Server) clientCreate(w http.ResponseWriter, r *http.Request) {
 	f := forms.Decode(r.PostForm, &in)
 	in.check(f, s.Today())
 	if f.Has() {
-		s.Render(w, r, http.StatusUnprocessableEntity, "New client", "clients", web.ClientForm(web.ClientFormData{Form: f}))
+		s.clientFormPage(w, r, http.StatusUnprocessableEntity, "New client", web.ClientFormData{Form: f})
 		return
 	}
 	var c store.Client
@@ -54,7 +59,7 @@ func (s *Server) clientEditPage(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	s.Render(w, r, http.StatusOK, "Edit "+c.Name, "clients", web.ClientForm(web.ClientFormData{Client: &c, Form: forms.FromValues(clientValues(c))}))
+	s.clientFormPage(w, r, http.StatusOK, "Edit "+c.Name, web.ClientFormData{Client: &c, Form: forms.FromValues(clientValues(c))})
 }
 
 func (s *Server) clientUpdate(w http.ResponseWriter, r *http.Request) {
@@ -73,11 +78,11 @@ func (s *Server) clientUpdate(w http.ResponseWriter, r *http.Request) {
 		f.Errors.Add("loaded", "Someone saved changes to this client at "+web.UTCStamp(c.UpdatedAt)+
 			" UTC, after you opened this form. Nothing was saved. Check the client page for their change; saving this form again replaces it with what is below.")
 		f.Values.Set("loaded", clientStamp(c))
-		s.Render(w, r, http.StatusConflict, "Edit "+c.Name, "clients", web.ClientForm(web.ClientFormData{Client: &c, Form: f}))
+		s.clientFormPage(w, r, http.StatusConflict, "Edit "+c.Name, web.ClientFormData{Client: &c, Form: f})
 		return
 	}
 	if f.Has() {
-		s.Render(w, r, http.StatusUnprocessableEntity, "Edit "+c.Name, "clients", web.ClientForm(web.ClientFormData{Client: &c, Form: f}))
+		s.clientFormPage(w, r, http.StatusUnprocessableEntity, "Edit "+c.Name, web.ClientFormData{Client: &c, Form: f})
 		return
 	}
 	in.apply(&c)

@@ -38,6 +38,10 @@ func (s *Server) readUpload(ctx context.Context, up store.Upload, c *store.Clien
 			answers.Set(k, v[0])
 		}
 	}
+	if answers.Get("mass_unit") == "" && c != nil {
+		// Bare numbers are first read in the unit the client is weighed in.
+		answers.Set("mass_unit", string(c.Unit))
+	}
 	if answers.Get("default_zone") == "" || !slices.Contains(store.Zones, answers.Get("default_zone")) {
 		answers.Set("default_zone", "endurance")
 	}

@@ -9,6 +9,8 @@ import (
 	"strings"
 	"time"
 
+	"larder/internal/mass"
+
 	"github.com/go-chi/chi/v5"
 	lru "github.com/hashicorp/golang-lru/v2"
 
@@ -185,7 +187,7 @@ func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
 	now := s.Now()
 	v := web.ClientDayView{
 		PracticeName: o.PracticeName, FirstName: firstName(o.ClientName), Caution: fuel.Caution,
-		Notes: splitCautions(o.SharedNote), ShowFigures: o.ShowFigures, CalendarURL: r.URL.Path + "/plan.ics",
+		Notes: splitCautions(o.SharedNote), ShowFigures: o.ShowFigures, MassUnit: o.MassUnit, CalendarURL: r.URL.Path + "/plan.ics",
 		SheetURL:  r.URL.Path + "/sheet.pdf",
 		DateLabel: now.UTC().Format("Monday 2 January 2006"),
 	}
@@ -209,6 +211,14 @@ func fillDay(v *web.ClientDayView, p linkPlan, today string, now time.Time) {
 	v.ZoneLabel = p.loc.String()
 	v.PlanTitle = p.Plan.Title
 	v.PlanNote = noteLines(p.Version.Notes.Plan)
+	v.BodyMass = mass.Text(p.Version.BodyMassKg, v.MassUnit)
+	if g := plan.ExpectedMassGainKg; g != nil {
+		hi := *g
+		if plan.ExpectedMassGainKgMax != nil {
+			hi = *plan.ExpectedMassGainKgMax
+		}
+		v.MassGain = mass.Difference(*g, hi, v.MassUnit)
+	}
 	for _, d := range plan.Days {
 		switch {
 		case d.Date == today:

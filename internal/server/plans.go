@@ -7,6 +7,8 @@ import (
 	"slices"
 	"strconv"
 
+	"larder/internal/mass"
+
 	"github.com/go-chi/chi/v5"
 
 	"larder/internal/forms"
@@ -102,7 +104,7 @@ func (s *Server) showPlan(w http.ResponseWriter, r *http.Request) {
 			cur = v
 		}
 	}
-	s.renderPlan(w, r, http.StatusOK, c, p, cur, versions, versionValues(cur), "")
+	s.renderPlan(w, r, http.StatusOK, c, p, cur, versions, versionValues(cur, c.Unit), "")
 }
 
 func (s *Server) versionFromURL(w http.ResponseWriter, r *http.Request) (store.Client, store.Plan, store.PlanVersion, []store.PlanVersion, bool) {
@@ -177,7 +179,7 @@ func (s *Server) showPlanVersion(w http.ResponseWriter, r *http.Request) {
 			return
 		}
 	}
-	s.renderPlanWith(w, r, http.StatusOK, c, p, v, versions, versionValues(v), "", planReads{stored: stored, needs: needs, choices: choices})
+	s.renderPlanWith(w, r, http.StatusOK, c, p, v, versions, versionValues(v, c.Unit), "", planReads{stored: stored, needs: needs, choices: choices})
 }
 
 func (s *Server) renderPlan(w http.ResponseWriter, r *http.Request, status int, c store.Client, p store.Plan, v store.PlanVersion,
@@ -220,12 +222,13 @@ func (s *Server) renderPlanWith(w http.ResponseWriter, r *http.Request, status i
 	}
 	pv.SuggestionNote = opts.Note()
 	pv.Form = f
+	pv.MassUnit = mass.Or(mass.Unit(f.Get(massUnitName)), c.Unit)
 	pv.Notice = notice
 	if !pv.Editable && notice != "" {
 		pv.Carry = carriedValues(f)
 	}
 	if pv.Editable && notice != "" {
-		pv.Theirs = differing(f, versionValues(v))
+		pv.Theirs = differing(f, versionValues(v, c.Unit))
 	}
 	s.Render(w, r, status, p.Title, "clients", web.PlanPage(pv))
 }
@@ -308,11 +311,11 @@ func (s *Server) discardDraft(w http.ResponseWriter, r *http.Request) {
 	gone, err := s.Store.DiscardDraft(r.Context(), Actor(r), v.ID, revision)
 	switch {
 	case errors.Is(err, store.ErrStaleRevision):
-		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, versionValues(v),
+		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, versionValues(v, c.Unit),
 			"Not discarded: someone saved this draft after you opened it. Look at their changes before discarding it.")
 		return
 	case errors.Is(err, store.ErrNotDraft):
-		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, versionValues(v),
+		s.renderPlan(w, r, http.StatusConflict, c, p, v, versions, versionValues(v, c.Unit),
 			"Not discarded: this version is no longer a draft. Published versions are kept.")
 		return
 	case err != nil:

@@ -6,6 +6,8 @@ import (
 	"strings"
 	"unicode/utf8"
 
+	"larder/internal/mass"
+
 	"larder/internal/forms"
 	"larder/internal/fuel"
 	"larder/internal/store"
@@ -29,8 +31,8 @@ func isNoteInput(name string) bool {
 }
 
 // versionValues are a version's saved inputs: its overrides and its notes.
-func versionValues(v store.PlanVersion) forms.Form {
-	f := overrideValues(v.Request)
+func versionValues(v store.PlanVersion, u mass.Unit) forms.Form {
+	f := overrideValues(v.Request, u)
 	if v.Notes.Plan != "" {
 		f.Values.Set(planNoteName, v.Notes.Plan)
 	}

@@ -10,6 +10,8 @@ import (
 	"strings"
 	"time"
 
+	"larder/internal/mass"
+
 	"larder/internal/forms"
 	"larder/internal/fuel"
 	"larder/internal/store"
@@ -40,13 +42,17 @@ const duringName = "during_gph"
 
 // Inputs of a draft's body figures: prefilled with the values used (not
 // overrides: the plan is recomputed from them as from the start form).
+// The body mass is typed in the unit named by massUnitName (the client's,
+// when the page was drawn).
 const (
-	massName = "in_body_mass_kg"
-	fatName  = "in_body_fat_pct"
+	massName     = "in_body_mass_kg"
+	massUnitName = "in_body_mass_unit"
+	fatName      = "in_body_fat_pct"
 )
 
-// overrideValues fills the override inputs from a request's overrides.
-func overrideValues(req fuel.Request) forms.Form {
+// overrideValues fills the override inputs from a request's overrides; the
+// body mass is shown in unit u.
+func overrideValues(req fuel.Request, u mass.Unit) forms.Form {
 	v := url.Values{}
 	for _, o := range req.Overrides {
 		if o.ChoGPerKg != nil {
@@ -68,7 +74,8 @@ func overrideValues(req fuel.Request) forms.Form {
 		v.Set(duringName, web.Num(*req.DuringEventChoGPerH, 1))
 	}
 	stageOverrideValues(v, req)
-	v.Set(massName, web.Num(req.Athlete.BodyMassKg, 2))
+	v.Set(massName, mass.Input(req.Athlete.BodyMassKg, u))
+	v.Set(massUnitName, string(u))
 	if req.Athlete.BodyFatPct != nil {
 		v.Set(fatName, web.Num(*req.Athlete.BodyFatPct, 1))
 	}
@@ -114,8 +121,15 @@ func decodeOverrides(values url.Values, req fuel.Request) (fuel.Request, forms.F
 	req.StageOverrides = nil
 	// The body figures change only when their inputs were sent.
 	if _, sent := values[massName]; sent {
-		if x, ok := number(massName, values.Get(massName), 25, 250, "Body mass", "kg"); ok {
-			req.Athlete.BodyMassKg = x
+		// The mass stands unless its number was changed from the one shown,
+		// so re-saving in lb does not move it by a conversion's rounding.
+		u := mass.Or(mass.Unit(values.Get(massUnitName)), mass.KG)
+		x, err := forms.ParseNumber(values.Get(massName))
+		kg := mass.Reread(x, u, req.Athlete.BodyMassKg)
+		if err != nil || !mass.InRange(kg) {
+			f.Errors.Add(massName, mass.RangeMessage(u))
+		} else {
+			req.Athlete.BodyMassKg = kg
 		}
 	}
 	if _, sent := values[fatName]; sent {
@@ -332,7 +346,9 @@ func carriedValues(f forms.Form) []web.Carried {
 		case isNoteInput(name):
 			label = noteLabel(name)
 		case name == massName:
-			label = "Body mass (kg)"
+			label = "Body mass (" + string(mass.Or(mass.Unit(f.Values.Get(massUnitName)), mass.KG)) + ")"
+		case name == massUnitName:
+			label = "Unit of the body mass"
 		case name == fatName:
 			label = "Body fat (%)"
 		case strings.HasPrefix(name, stageGPHPrefix):
@@ -361,7 +377,7 @@ func carriedValues(f forms.Form) []web.Carried {
 func overrideInputs(form url.Values) url.Values {
 	v := url.Values{}
 	for name, vals := range form {
-		if name == duringName || name == massName || name == fatName || isNoteInput(name) || strings.HasPrefix(name, "gkg_") || strings.HasPrefix(name, "occ_") || strings.HasPrefix(name, stageGPHPrefix) ||
+		if name == duringName || name == massName || name == massUnitName || name == fatName || isNoteInput(name) || strings.HasPrefix(name, "gkg_") || strings.HasPrefix(name, "occ_") || strings.HasPrefix(name, stageGPHPrefix) ||
 			strings.HasPrefix(name, "feedcho_") || strings.HasPrefix(name, "feedat_") {
 			v[name] = vals
 		}

@@ -9,6 +9,8 @@ import (
 	"strings"
 	"time"
 
+	"larder/internal/mass"
+
 	"larder/internal/forms"
 	"larder/internal/fuel"
 	"larder/internal/store"
@@ -23,15 +25,18 @@ const staleMassDays = 14
 
 // planStartForm is the start-a-plan form.
 type planStartForm struct {
-	Kind            string     `form:"kind" label:"Kind of plan" validate:"required,oneof=loading race repletion week"`
-	Title           string     `form:"title" label:"Title" validate:"max=200"`
-	EventID         int        `form:"event_id" label:"Event" validate:"gte=0"`
-	Protocol        string     `form:"protocol" label:"Loading protocol" validate:"omitempty,oneof=two-day one-day three-day"`
-	TaperDays       int        `form:"taper_days" label:"Days before the event covered" validate:"gte=0,lte=14"`
-	IntensityPct    *float64   `form:"intensity_pct" label:"Race intensity" unit:"% VO2max" validate:"omitempty,gte=20,lte=100"`
-	BodyMassKg      *float64   `form:"body_mass_kg" label:"Body mass" unit:"kg" validate:"required,gte=25,lte=250"`
+	Kind         string   `form:"kind" label:"Kind of plan" validate:"required,oneof=loading race repletion week"`
+	Title        string   `form:"title" label:"Title" validate:"max=200"`
+	EventID      int      `form:"event_id" label:"Event" validate:"gte=0"`
+	Protocol     string   `form:"protocol" label:"Loading protocol" validate:"omitempty,oneof=two-day one-day three-day"`
+	TaperDays    int      `form:"taper_days" label:"Days before the event covered" validate:"gte=0,lte=14"`
+	IntensityPct *float64 `form:"intensity_pct" label:"Race intensity" unit:"% VO2max" validate:"omitempty,gte=20,lte=100"`
+	// BodyMassKg is typed in BodyMassUnit (the client's unit when the form
+	// was drawn) and holds kg once decodePlanStart has converted it.
+	BodyMassKg      *float64   `form:"body_mass_kg" label:"Body mass" validate:"required"`
+	BodyMassUnit    string     `form:"body_mass_unit"`
 	BodyMassOn      *time.Time `form:"body_mass_on" label:"Date of the body mass"`
-	BodyMassPrefill string     `form:"body_mass_prefill"`
+	BodyMassPrefill string     `form:"body_mass_prefill"` // the measurement on record, in kg
 	BodyFatPct      *float64   `form:"body_fat_pct" label:"Body fat" unit:"%" validate:"omitempty,gte=3,lte=60"`
 	HeightCm        *float64   `form:"height_cm" label:"Height" unit:"cm" validate:"omitempty,gte=120,lte=230"`
 	VO2max          *float64   `form:"vo2max" label:"VO2max" unit:"ml/kg/min" validate:"omitempty,gte=20,lte=95"`
@@ -72,8 +77,9 @@ func (s *Server) newPlanPage(w http.ResponseWriter, r *http.Request) {
 	if c.HeightCm != nil {
 		v.Set("height_cm", web.Num(*c.HeightCm, 1))
 	}
+	v.Set("body_mass_unit", string(c.Unit))
 	if m, err := s.Store.LatestBodyMass(r.Context(), c.ID); err == nil {
-		v.Set("body_mass_kg", web.Num(m.MassKg, 2))
+		v.Set("body_mass_kg", mass.Input(m.MassKg, c.Unit))
 		v.Set("body_mass_prefill", web.Num(m.MassKg, 2))
 		v.Set("body_mass_on", web.ISODate(m.MeasuredOn))
 	} else if !errors.Is(err, store.ErrNotFound) {
@@ -168,9 +174,11 @@ func (s *Server) renderPlanStart(w http.ResponseWriter, r *http.Request, status 
 	v := web.PlanStartView{
 		ClientID: c.ID, ClientName: c.Name, ClientCautions: c.Cautions, Sex: c.Sex,
 		Events: opts, EventLines: lines, Kinds: planKinds, Protocols: planProtocols, Caution: fuel.Caution, Form: f,
+		MassUnit: mass.Or(mass.Unit(f.Get("body_mass_unit")), c.Unit),
 	}
 	if on, err := time.Parse(forms.DateLayout, f.Get("body_mass_on")); err == nil {
-		v.BodyMassNote = "Latest measurement: " + f.Get("body_mass_prefill") + " kg on " + web.Date(on) + "."
+		pre, _ := forms.ParseNumber(f.Get("body_mass_prefill"))
+		v.BodyMassNote = "Latest measurement: " + mass.Text(pre, v.MassUnit) + " on " + web.Date(on) + "."
 		if age := int(s.Today().Sub(on).Hours() / 24); age > staleMassDays {
 			v.BodyMassWarning = fmt.Sprintf("The latest body mass is %d days old. Weigh the athlete again or check the figure before relying on the plan.", age)
 		}
@@ -325,6 +333,17 @@ func defaultTitle(in planStartForm, e *store.Event) string {
 func decodePlanStart(values url.Values, c store.Client, events []store.Event) (planInputs, forms.Form) {
 	var in planStartForm
 	f := forms.Decode(values, &in)
+	if in.BodyMassKg != nil {
+		// Typed in the form's unit; the measurement on record stands when its
+		// number was left as shown, so no rounding of lb moves it.
+		u := mass.Or(mass.Unit(in.BodyMassUnit), mass.KG)
+		pre, _ := forms.ParseNumber(in.BodyMassPrefill)
+		kg := mass.Reread(*in.BodyMassKg, u, pre)
+		if !mass.InRange(kg) {
+			f.Errors.Add("body_mass_kg", mass.RangeMessage(u))
+		}
+		in.BodyMassKg = &kg
+	}
 	pi := planInputs{client: c, form: in}
 	if in.EventID > 0 {
 		for i := range events {

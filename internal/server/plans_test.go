@@ -115,7 +115,7 @@ func TestPlanFormRefusesBadInput(t *testing.T) {
 		msgs []string
 	}{
 		{planForm("loading", "58"), []string{"needs the event it leads to"}},
-		{planForm("loading", "400", "event_id", itoa64(demo.IDs.Events["marathon"])), []string{"Body mass must be between 25 and 250 kg."}},
+		{planForm("loading", "400", "event_id", itoa64(demo.IDs.Events["marathon"])), []string{"Body mass must be between 20 and 300 kg."}},
 		{planForm("repletion", "58", "session_end", "2027-03-02T15:30", "next_start", "2027-03-02T09:30", "time_zone", "Europe/Oslo"), []string{"The next session must start after the end of this one."}},
 		{planForm("repletion", "58", "time_zone", "Mars/Olympus"), []string{"needs the end of the session", "Time zone must be a time zone name"}},
 		{planForm("week", "58", "days", "0"), []string{"needs its first day"}},
@@ -522,7 +522,7 @@ func TestDraftBodyMassRecomputes(t *testing.T) {
 	if res.status != http.StatusUnprocessableEntity {
 		t.Fatalf("bad body mass: status %d", res.status)
 	}
-	res.mustContain(t, "Body mass must be a number from 25 to 250 kg.", `value="500"`)
+	res.mustContain(t, "Body mass must be between 20 and 300 kg.", `value="500"`)
 
 	b.post(editURL, url.Values{"revision": {strconv.Itoa(v.Revision)}, "action": {"save"}, massName: {"61"}, fatName: {""}}).mustRedirect(t, editURL)
 	v2 := latestVersion(t, a, pid)

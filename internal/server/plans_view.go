@@ -8,6 +8,8 @@ import (
 	"strings"
 	"time"
 
+	"larder/internal/mass"
+
 	"github.com/a-h/templ"
 
 	"larder/internal/chart"
@@ -38,7 +40,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		DiscardURL: web.Path("clients", c.ID, "plans", p.ID, "versions", v.Version, "discard"),
 		Caution:    plan.Caution,
 		Tolerance:  "±10 % or ±5 g, whichever is larger",
-		MassName:   massName, FatName: fatName,
+		MassName:   massName, FatName: fatName, MassUnitName: massUnitName,
 	}
 	if pv.Caution == "" {
 		pv.Caution = fuel.Caution
@@ -71,7 +73,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 	}
 	pv.Revisable = v.Status == store.PlanPublished && !hasDraft
 
-	pv.BodyMass = web.Num(v.BodyMassKg, 2) + " kg"
+	pv.BodyMass = mass.Precise(v.BodyMassKg, c.Unit)
 	if v.BodyMassOn != nil {
 		pv.BodyMass += ", measured " + web.Date(*v.BodyMassOn)
 		if age := int(s.Today().Sub(*v.BodyMassOn).Hours() / 24); age > staleMassDays && v.Status == store.PlanDraft {
@@ -84,7 +86,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 	case fuel.FFMNone, "":
 		pv.FatFreeMass = "not known (no body fat or height on record)"
 	default:
-		pv.FatFreeMass = web.Num(plan.FatFreeMassKg, 1) + " kg (" + plan.FatFreeMassMethod + ")"
+		pv.FatFreeMass = mass.Text(plan.FatFreeMassKg, c.Unit) + " (" + plan.FatFreeMassMethod + ")"
 	}
 
 	// Findings by the value they concern; any whose subject has no place on
@@ -202,10 +204,11 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		}
 	}
 	if plan.ExpectedMassGainKg != nil {
-		pv.MassGain = web.Num(*plan.ExpectedMassGainKg, 1) + " kg"
-		if hi := plan.ExpectedMassGainKgMax; hi != nil && *hi != *plan.ExpectedMassGainKg {
-			pv.MassGain = web.Num(*plan.ExpectedMassGainKg, 1) + "–" + web.Num(*hi, 1) + " kg"
+		hi := *plan.ExpectedMassGainKg
+		if plan.ExpectedMassGainKgMax != nil {
+			hi = *plan.ExpectedMassGainKgMax
 		}
+		pv.MassGain = mass.Difference(*plan.ExpectedMassGainKg, hi, c.Unit)
 	}
 	if rp := plan.Repletion; rp != nil {
 		val := fmt.Sprintf("%s h between sessions. ", web.Num(rp.GapH, 1))
@@ -407,7 +410,7 @@ func (s *Server) clientBodyMassChart(r *http.Request, c store.Client, history []
 	for i := len(history) - 1; i >= 0; i-- { // history is newest first
 		pts = append(pts, chart.MassPoint{On: history[i].MeasuredOn, Kg: history[i].MassKg})
 	}
-	svg, err := s.bodyMassSVG(pts)
+	svg, err := s.bodyMassSVG(pts, c.Unit)
 	if err != nil {
 		return nil, err
 	}

@@ -22,17 +22,8 @@ func (s *Server) bodyMassNewPage(w http.ResponseWriter, r *http.Request) {
 	}
 	f := forms.New()
 	f.Values.Set("measured_on", web.ISODate(s.Today()))
-	f.Values.Set("unit", s.lastMassUnit(r, c.ID))
+	f.Values.Set("unit", string(c.Unit))
 	s.Render(w, r, http.StatusOK, "Add body mass", "clients", web.BodyMassForm(c, nil, f))
-}
-
-// lastMassUnit is the unit of the client's latest measurement (kg if none),
-// so a client who weighs in pounds gets lb preselected.
-func (s *Server) lastMassUnit(r *http.Request, clientID int64) string {
-	if m, err := s.Store.LatestBodyMass(r.Context(), clientID); err == nil {
-		return m.EnteredUnit
-	}
-	return "kg"
 }
 
 func (s *Server) bodyMassCreate(w http.ResponseWriter, r *http.Request) {
@@ -53,7 +44,7 @@ func (s *Server) bodyMassCreate(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	s.Flash(r, "Body mass "+web.MassText(m)+" on "+web.Date(m.MeasuredOn)+" saved.")
+	s.Flash(r, "Body mass "+web.MassText(m.MassKg, c.Unit)+" on "+web.Date(m.MeasuredOn)+" saved.")
 	Redirect(w, r, web.Path("clients", c.ID)+"#body-mass")
 }
 
@@ -133,7 +124,7 @@ func (s *Server) bodyMassDelete(w http.ResponseWriter, r *http.Request) {
 		s.StoreError(w, r, err)
 		return
 	}
-	s.Flash(r, "Measurement of "+web.Date(m.MeasuredOn)+" ("+web.MassText(m)+") deleted.")
+	s.Flash(r, "Measurement of "+web.Date(m.MeasuredOn)+" ("+web.MassText(m.MassKg, c.Unit)+") deleted.")
 	Redirect(w, r, web.Path("clients", c.ID)+"#body-mass")
 }
 

@@ -100,9 +100,11 @@ func TestBodyMassAddEditDelete(t *testing.T) {
 	if list[0].MassKg != 68.04 || list[0].EnteredUnit != "lb" || list[1].MassKg != 61.4 || *list[1].BodyFatPct != 21.5 {
 		t.Fatalf("stored %+v / %+v", list[0], list[1])
 	}
-	// Newest first on the page, the latest shown as entered.
+	// Newest first on the page, in the client's unit (the practice's kg):
+	// 68.04 kg shows as 68.0 kg; its edit form shows it back as typed.
 	page := b.get(base)
-	page.mustContain(t, "150.0 lb (68.0 kg)", "61.4 kg", "21.5 %")
+	page.mustContain(t, "68.0 kg", "61.4 kg", "21.5 %")
+	b.get(base+"/body-mass/"+itoa(list[0].ID)+"/edit").mustContain(t, `name="mass" value="150"`, `name="unit" value="lb" checked`)
 	if strings.Index(page.body, "Mon 1 Mar 2027") > strings.Index(page.body, "Sat 20 Feb 2027") {
 		t.Fatal("body-mass history is not newest first")
 	}

@@ -5,6 +5,8 @@ import (
 	"net/http"
 	"strconv"
 
+	"larder/internal/mass"
+
 	"github.com/jackc/pgx/v5/pgconn"
 
 	"github.com/a-h/templ"
@@ -40,6 +42,16 @@ func (s *Server) PracticeName(r *http.Request) string {
 		s.Log.Warn("practice name", "err", err)
 	}
 	return name
+}
+
+// PracticeMassUnit is the unit body masses are shown in for clients who
+// chose none: the mass_unit setting, or kg.
+func (s *Server) PracticeMassUnit(r *http.Request) mass.Unit {
+	u, err := s.Store.Setting(r.Context(), store.SettingMassUnit, string(mass.Default))
+	if err != nil {
+		s.Log.Warn("mass unit", "err", err)
+	}
+	return mass.Or(mass.Unit(u), mass.Default)
 }
 
 // Flash stores a one-time notice shown on the next page.

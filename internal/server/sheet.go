@@ -114,7 +114,7 @@ func (s *Server) planSheetPDF(r *http.Request, c store.Client, p store.Plan, v s
 		PracticeName: s.PracticeName(r), ClientName: c.Name, Title: p.Title,
 		KindLabel: kindLabel(p.Kind), Protocol: p.Protocol,
 		Version: v.Version, Status: v.Status, PublishedAt: v.PublishedAt,
-		BodyMassKg: v.BodyMassKg, BodyMassOn: v.BodyMassOn,
+		BodyMassKg: v.BodyMassKg, BodyMassOn: v.BodyMassOn, MassUnit: c.Unit,
 		Training: trainingByDate(v.Request.Training), Plan: v.Result, Printed: s.Now(),
 		Form: form, PlanNote: v.Notes.Plan, DayNotes: v.Notes.Days,
 		SharedNote: splitCautions(c.SharedNote), ShowFigures: c.AthleteSeesEnergyMass,

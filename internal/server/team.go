@@ -43,6 +43,7 @@ func (s *Server) renderTeam(w http.ResponseWriter, r *http.Request, status int, 
 			return
 		}
 		practice.Values.Set("practice_time_zone", zone)
+		practice.Values.Set("mass_unit", string(s.PracticeMassUnit(r)))
 	}
 	recent, err := s.Store.RecentAudit(r.Context(), 20)
 	if err != nil {
@@ -217,6 +218,12 @@ func (s *Server) teamPractice(w http.ResponseWriter, r *http.Request) {
 	if err := s.Store.SetSetting(r.Context(), Actor(r), store.SettingPracticeTimeZone, in.TimeZone); err != nil {
 		s.ServerError(w, r, err)
 		return
+	}
+	if in.MassUnit != string(s.PracticeMassUnit(r)) {
+		if err := s.Store.SetSetting(r.Context(), Actor(r), store.SettingMassUnit, in.MassUnit); err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
 	}
 	s.Flash(r, "Practice details saved.")
 	Redirect(w, r, "/team")

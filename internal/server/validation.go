@@ -8,6 +8,7 @@ import (
 
 	"larder/internal/forms"
 	"larder/internal/fuel"
+	"larder/internal/mass"
 	"larder/internal/store"
 	"larder/web"
 )
@@ -26,6 +27,7 @@ type clientForm struct {
 	Cautions    string     `form:"cautions" label:"Recorded cautions" validate:"max=2000"`
 	SharedNote  string     `form:"shared_note" label:"Health note shared with the athlete" validate:"max=2000"`
 	ShowFigures bool       `form:"athlete_sees_energy_mass"`
+	MassUnit    string     `form:"mass_unit" label:"Body-mass unit" validate:"omitempty,oneof=kg lb" msg:"Choose the practice's unit, kg or lb."`
 }
 
 // Youngest and oldest plausible clients, in years.
@@ -63,6 +65,7 @@ func (in *clientForm) apply(c *store.Client) {
 	c.Cautions = in.Cautions
 	c.SharedNote = in.SharedNote
 	c.AthleteSeesEnergyMass = in.ShowFigures
+	c.MassUnit = mass.Unit(in.MassUnit)
 }
 
 // clientStamp names the saved version of a client a form was opened on, so a
@@ -87,6 +90,7 @@ func clientValues(c store.Client) url.Values {
 	if c.AthleteSeesEnergyMass {
 		v.Set("athlete_sees_energy_mass", "on")
 	}
+	v.Set("mass_unit", string(c.MassUnit))
 	return v
 }
 
@@ -97,12 +101,6 @@ type bodyMassForm struct {
 	BodyFatPct *float64  `form:"body_fat_pct" label:"Body fat" unit:"%" validate:"omitempty,gte=2,lte=60"`
 	Method     string    `form:"method" label:"Method" validate:"max=100"`
 }
-
-// Body-mass limits in kg; the same range is stated in lb for lb entries.
-const (
-	minMassKg = 20
-	maxMassKg = 300
-)
 
 // check adds the rules one field cannot say alone; born is the client's date
 // of birth, nil when not recorded.
@@ -119,28 +117,15 @@ func (in *bodyMassForm) check(f forms.Form, today time.Time, born *time.Time) {
 		}
 	}
 	if in.Mass != nil && f.Err("unit") == "" {
-		kg := in.massKg()
-		if kg < minMassKg || kg > maxMassKg {
-			if in.Unit == "lb" {
-				f.Errors.Add("mass", fmt.Sprintf("Body mass must be between %s and %s lb (%d to %d kg).",
-					web.Num(forms.KgToLb(minMassKg), 1), web.Num(forms.KgToLb(maxMassKg), 1), minMassKg, maxMassKg))
-			} else {
-				f.Errors.Add("mass", fmt.Sprintf("Body mass must be between %d and %d kg.", minMassKg, maxMassKg))
-			}
+		if _, ok := mass.Check(*in.Mass, mass.Unit(in.Unit)); !ok {
+			f.Errors.Add("mass", mass.RangeMessage(mass.Unit(in.Unit)))
 		}
 	}
 }
 
-func (in *bodyMassForm) massKg() float64 {
-	if in.Unit == "lb" {
-		return forms.LbToKg(*in.Mass)
-	}
-	return *in.Mass
-}
-
 func (in *bodyMassForm) apply(m *store.BodyMass) {
 	m.MeasuredOn = in.MeasuredOn
-	m.MassKg = forms.Round(in.massKg(), 2)
+	m.MassKg = mass.StoredKg(*in.Mass, mass.Unit(in.Unit))
 	m.EnteredUnit = in.Unit
 	m.BodyFatPct = in.BodyFatPct
 	if m.BodyFatPct != nil {
@@ -365,4 +350,5 @@ type roleForm struct {
 type practiceForm struct {
 	PracticeName string `form:"practice_name" label:"Practice name" validate:"required,max=120"`
 	TimeZone     string `form:"practice_time_zone" label:"Time zone" validate:"required,iana_zone"`
+	MassUnit     string `form:"mass_unit" label:"Body-mass unit" validate:"required,oneof=kg lb" msg:"Choose kg or lb."`
 }

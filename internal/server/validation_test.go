@@ -58,11 +58,12 @@ func TestValidationMessages(t *testing.T) {
 		{"mass required", base + "/body-mass", "body_mass", merge(massOK, "mass", ""), "mass", "Body mass is required.", ""},
 		{"mass low kg", base + "/body-mass", "body_mass", merge(massOK, "mass", "19.9"), "mass", "Body mass must be between 20 and 300 kg.", `value="19.9"`},
 		{"mass high kg", base + "/body-mass", "body_mass", merge(massOK, "mass", "300.5"), "mass", "Body mass must be between 20 and 300 kg.", ""},
-		// 20 kg = 44.1 lb and 300 kg = 661.4 lb (1 lb = 0.45359237 kg; common practice).
+		// 20 kg = 44.09 lb and 300 kg = 661.39 lb (1 lb = 0.45359237 kg exactly,
+		// NIST SP 811): stated inwards to 0.1 lb, 44.1 to 661.3.
 		{"mass high lb", base + "/body-mass", "body_mass", merge(massOK, "mass", "700", "unit", "lb"), "mass",
-			"Body mass must be between 44.1 and 661.4 lb (20 to 300 kg).", `value="700"`},
+			"Body mass must be between 44.1 and 661.3 lb (20 to 300 kg).", `value="700"`},
 		{"mass low lb", base + "/body-mass", "body_mass", merge(massOK, "mass", "40", "unit", "lb"), "mass",
-			"Body mass must be between 44.1 and 661.4 lb (20 to 300 kg).", ""},
+			"Body mass must be between 44.1 and 661.3 lb (20 to 300 kg).", ""},
 		{"mass not a number", base + "/body-mass", "body_mass", merge(massOK, "mass", "seventy"), "mass", "Body mass must be a number.", `value="seventy"`},
 		{"unit", base + "/body-mass", "body_mass", merge(massOK, "unit", "stone"), "unit", "Choose kg or lb.", ""},
 		{"measurement date two days ahead", base + "/body-mass", "body_mass", merge(massOK, "measured_on", "2027-03-03"), "measured_on",

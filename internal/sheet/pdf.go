@@ -11,6 +11,8 @@ import (
 	"strings"
 	"time"
 
+	"larder/internal/mass"
+
 	"github.com/go-pdf/fpdf"
 
 	"larder/internal/fuel"
@@ -66,6 +68,8 @@ type Sheet struct {
 	PublishedAt    *time.Time
 	BodyMassKg     float64
 	BodyMassOn     *time.Time // nil: typed in for the plan
+	// MassUnit is the unit the client's body masses are printed in.
+	MassUnit mass.Unit
 	// Training is the day's training in words, by date YYYY-MM-DD.
 	Training map[string]string
 	Plan     fuel.Plan
@@ -87,6 +91,9 @@ type Sheet struct {
 	// ShowFigures puts energy and body-mass figures on the athlete's form.
 	ShowFigures bool
 }
+
+// unit is the body-mass unit printed: the client's, kg when none is set.
+func (s Sheet) unit() mass.Unit { return mass.Or(s.MassUnit, mass.KG) }
 
 // Write renders the sheet as PDF to w.
 func Write(w io.Writer, s Sheet, paper Paper) error {

@@ -6,6 +6,8 @@ import (
 	"strconv"
 	"time"
 
+	"larder/internal/mass"
+
 	"larder/internal/fuel"
 )
 
@@ -188,18 +190,18 @@ func (d *doc) facts() {
 			version += " (published " + s.PublishedAt.In(d.loc).Format("2 Jan 2006") + ")"
 		}
 	}
-	mass := num(s.BodyMassKg, 1) + " kg"
+	used := mass.Text(s.BodyMassKg, s.unit())
 	if s.BodyMassOn != nil {
-		mass += ", measured " + s.BodyMassOn.Format("Mon 2 Jan 2006")
+		used += ", measured " + s.BodyMassOn.Format("Mon 2 Jan 2006")
 	} else {
-		mass += ", typed in for this plan"
+		used += ", typed in for this plan"
 	}
 	ffm := "not known"
 	if s.Plan.FatFreeMassMethod != fuel.FFMNone && s.Plan.FatFreeMassMethod != "" {
-		ffm = num(s.Plan.FatFreeMassKg, 1) + " kg (" + s.Plan.FatFreeMassMethod + ")"
+		ffm = mass.Text(s.Plan.FatFreeMassKg, s.unit()) + " (" + s.Plan.FatFreeMassMethod + ")"
 	}
 	left := []pair{{"Client", s.ClientName}, {"Event", event}, {"Plan", kind}}
-	right := []pair{{"Version", version}, {"Body mass used", mass}, {"Fat-free mass", ffm}, {"Times", "all times in " + d.zone}}
+	right := []pair{{"Version", version}, {"Body mass used", used}, {"Fat-free mass", ffm}, {"Times", "all times in " + d.zone}}
 	d.pairColumns(left, right)
 }
 

@@ -6,6 +6,8 @@ import (
 	"strconv"
 	"time"
 
+	"larder/internal/mass"
+
 	"larder/internal/fuel"
 	"larder/internal/menu"
 )
@@ -200,11 +202,12 @@ func (d *doc) eventFigures() {
 		}
 	}
 	if p.ExpectedMassGainKg != nil {
-		gain := num(*p.ExpectedMassGainKg, 1)
-		if hi := p.ExpectedMassGainKgMax; hi != nil && *hi != *p.ExpectedMassGainKg {
-			gain += "–" + num(*hi, 1)
+		hi := *p.ExpectedMassGainKg
+		if p.ExpectedMassGainKgMax != nil {
+			hi = *p.ExpectedMassGainKgMax
 		}
-		rows = append(rows, pair{"Expected body-mass gain", gain + " kg above the usual diet, from glycogen stored with its water; expected, not a sign of fat gain."})
+		rows = append(rows, pair{"Expected body-mass gain", mass.Difference(*p.ExpectedMassGainKg, hi, d.s.unit()) +
+			" above the usual diet, from glycogen stored with its water; expected, not a sign of fat gain."})
 	}
 	if len(rows) == 0 {
 		return

@@ -6,6 +6,8 @@ import (
 	"time"
 
 	"github.com/jackc/pgx/v5"
+
+	"larder/internal/mass"
 )
 
 // Sexes as used by physiology equations.
@@ -30,9 +32,13 @@ type Client struct {
 	// AthleteSeesEnergyMass shows energy and body-mass figures (kcal, g/kg,
 	// kg) on the athlete's surfaces; off by default.
 	AthleteSeesEnergyMass bool
-	ArchivedAt            *time.Time
-	CreatedAt             time.Time
-	UpdatedAt             time.Time
+	// MassUnit is the client's own choice of body-mass unit, "" to follow
+	// the practice's; Unit is the one in effect, read with the client.
+	MassUnit   mass.Unit
+	Unit       mass.Unit
+	ArchivedAt *time.Time
+	CreatedAt  time.Time
+	UpdatedAt  time.Time
 }
 
 // Archived reports whether the client is archived.
@@ -75,10 +81,12 @@ type ClientFilter struct {
 	Show  string // ShowActive (default), ShowArchived or ShowAll
 }
 
-const clientCols = `c.id, c.name, c.date_of_birth, c.sex, c.height_cm::float8, c.sport, c.notes, c.cautions, c.shared_note, c.athlete_sees_energy_mass, c.archived_at, c.created_at, c.updated_at`
+const clientCols = `c.id, c.name, c.date_of_birth, c.sex, c.height_cm::float8, c.sport, c.notes, c.cautions, c.shared_note, c.athlete_sees_energy_mass,
+	coalesce(c.mass_unit, ''), coalesce(c.mass_unit, (SELECT value FROM settings WHERE key = 'mass_unit'), 'kg'),
+	c.archived_at, c.created_at, c.updated_at`
 
 func clientDest(c *Client) []any {
-	return []any{&c.ID, &c.Name, &c.DateOfBirth, &c.Sex, &c.HeightCm, &c.Sport, &c.Notes, &c.Cautions, &c.SharedNote, &c.AthleteSeesEnergyMass, &c.ArchivedAt, &c.CreatedAt, &c.UpdatedAt}
+	return []any{&c.ID, &c.Name, &c.DateOfBirth, &c.Sex, &c.HeightCm, &c.Sport, &c.Notes, &c.Cautions, &c.SharedNote, &c.AthleteSeesEnergyMass, &c.MassUnit, &c.Unit, &c.ArchivedAt, &c.CreatedAt, &c.UpdatedAt}
 }
 
 // searchWords splits a search into words, each a LIKE pattern taken
@@ -139,15 +147,16 @@ func (s *Store) ClientByID(ctx context.Context, id int64) (Client, error) {
 
 func clientDetail(c *Client) map[string]any {
 	return map[string]any{"name": c.Name, "sex": c.Sex, "height_cm": c.HeightCm, "sport": c.Sport, "cautions": c.Cautions,
-		"shared_note": c.SharedNote, "athlete_sees_energy_mass": c.AthleteSeesEnergyMass}
+		"shared_note": c.SharedNote, "athlete_sees_energy_mass": c.AthleteSeesEnergyMass,
+		"mass_unit": string(c.MassUnit)}
 }
 
 // CreateClient adds a client; c.ID and timestamps are filled in.
 func (s *Store) CreateClient(ctx context.Context, actor Actor, c *Client) error {
 	return s.inTx(ctx, func(tx pgx.Tx) error {
-		if err := tx.QueryRow(ctx, `INSERT INTO clients (name, date_of_birth, sex, height_cm, sport, notes, cautions, shared_note, athlete_sees_energy_mass)
-			VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9) RETURNING id, created_at, updated_at`,
-			c.Name, c.DateOfBirth, c.Sex, c.HeightCm, c.Sport, c.Notes, c.Cautions, c.SharedNote, c.AthleteSeesEnergyMass).Scan(&c.ID, &c.CreatedAt, &c.UpdatedAt); err != nil {
+		if err := tx.QueryRow(ctx, `INSERT INTO clients (name, date_of_birth, sex, height_cm, sport, notes, cautions, shared_note, athlete_sees_energy_mass, mass_unit)
+			VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, NULLIF($10, '')) RETURNING id, created_at, updated_at`,
+			c.Name, c.DateOfBirth, c.Sex, c.HeightCm, c.Sport, c.Notes, c.Cautions, c.SharedNote, c.AthleteSeesEnergyMass, string(c.MassUnit)).Scan(&c.ID, &c.CreatedAt, &c.UpdatedAt); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "create", "client", c.ID, clientDetail(c))
@@ -158,8 +167,8 @@ func (s *Store) CreateClient(ctx context.Context, actor Actor, c *Client) error 
 func (s *Store) UpdateClient(ctx context.Context, actor Actor, c *Client) error {
 	return s.inTx(ctx, func(tx pgx.Tx) error {
 		if err := execOne(ctx, tx, `UPDATE clients SET name = $2, date_of_birth = $3, sex = $4, height_cm = $5,
-			sport = $6, notes = $7, cautions = $8, shared_note = $9, athlete_sees_energy_mass = $10, updated_at = now() WHERE id = $1`,
-			c.ID, c.Name, c.DateOfBirth, c.Sex, c.HeightCm, c.Sport, c.Notes, c.Cautions, c.SharedNote, c.AthleteSeesEnergyMass); err != nil {
+			sport = $6, notes = $7, cautions = $8, shared_note = $9, athlete_sees_energy_mass = $10, mass_unit = NULLIF($11, ''), updated_at = now() WHERE id = $1`,
+			c.ID, c.Name, c.DateOfBirth, c.Sex, c.HeightCm, c.Sport, c.Notes, c.Cautions, c.SharedNote, c.AthleteSeesEnergyMass, string(c.MassUnit)); err != nil {
 			return err
 		}
 		return AuditTx(ctx, tx, actor, "update", "client", c.ID, clientDetail(c))

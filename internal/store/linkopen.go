@@ -5,6 +5,8 @@ import (
 	"time"
 
 	"github.com/jackc/pgx/v5"
+
+	"larder/internal/mass"
 )
 
 // LinkUseEvery is how often a link's last use is written: a client
@@ -23,7 +25,9 @@ type LinkOpen struct {
 	// SharedNote is the health note the dietitian chose to share.
 	SharedNote string
 	// ShowFigures: the dietitian chose to show energy and body-mass figures.
-	ShowFigures  bool
+	ShowFigures bool
+	// MassUnit is the unit the client's body masses are shown in.
+	MassUnit     mass.Unit
 	PracticeName string
 	Plans        []PublishedRef // oldest plan first
 }
@@ -46,6 +50,7 @@ type PublishedRef struct {
 func (s *Store) OpenClientLink(ctx context.Context, hash []byte, now time.Time) (LinkOpen, error) {
 	rows, err := s.Pool.Query(ctx, `SELECT l.id, l.client_id, l.token_hash, l.label, l.created_by, l.created_at, l.expires_at,
 			l.revoked_at, l.last_used_at, c.name, c.shared_note, c.athlete_sees_energy_mass,
+			coalesce(c.mass_unit, (SELECT value FROM settings WHERE key = 'mass_unit'), 'kg'),
 			coalesce((SELECT value FROM settings WHERE key = $3), $4),
 			p.id, p.event_id, p.kind, p.protocol, p.title, p.created_by, p.created_at, p.updated_at, v.id, coalesce(e.name, '')
 		FROM client_links l JOIN clients c ON c.id = l.client_id
@@ -66,7 +71,7 @@ func (s *Store) OpenClientLink(ctx context.Context, hash []byte, now time.Time) 
 		var p Plan
 		var event string
 		if err := rows.Scan(&l.ID, &l.ClientID, &l.TokenHash, &l.Label, &l.CreatedBy, &l.CreatedAt, &l.ExpiresAt,
-			&l.RevokedAt, &l.LastUsedAt, &o.ClientName, &o.SharedNote, &o.ShowFigures, &o.PracticeName,
+			&l.RevokedAt, &l.LastUsedAt, &o.ClientName, &o.SharedNote, &o.ShowFigures, &o.MassUnit, &o.PracticeName,
 			&pid, &p.EventID, &kind, &protocol, &title, &p.CreatedBy, &created, &updated, &vid, &event); err != nil {
 			rows.Close()
 			return LinkOpen{}, err

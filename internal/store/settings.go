@@ -10,6 +10,7 @@ import (
 // Setting keys.
 const (
 	SettingPracticeName = "practice_name" // shown in every page's header and on sheets
+	SettingMassUnit     = "mass_unit"     // kg or lb: the unit body masses are shown in unless a client chose one
 )
 
 // DefaultPracticeName is shown until an admin names the practice.
