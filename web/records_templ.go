@@ -607,7 +607,7 @@ func EventForm(c store.Client, e *store.Event, f forms.Form) templ.Component {
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = Select(f, "priority", "Priority", []Option{{"A", "A — the goal"}, {"B", "B — important"}, {"C", "C — training race"}}, "").Render(ctx, templ_7745c5c3_Buffer)
+		templ_7745c5c3_Err = Select(f, "priority", "Priority", []Option{{store.PriorityGoal, store.PriorityLabel(store.PriorityGoal)}, {store.PriorityImportant, store.PriorityLabel(store.PriorityImportant)}, {store.PriorityTraining, store.PriorityLabel(store.PriorityTraining)}}, "").Render(ctx, templ_7745c5c3_Buffer)
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}

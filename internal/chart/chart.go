@@ -179,7 +179,7 @@ func GlycogenCurve(points []GlycogenPoint, start time.Time, startLabel string) (
 		return nil, ErrNoData
 	}
 	loc := points[0].At.Location()
-	p := newPlot("Expected glycogen", "", "g")
+	p := newPlot("Estimated glycogen (model)", "", "g")
 	p.X.Tick.Marker = clockTicks{loc: loc}
 	muscle := make(plotter.XYs, len(points))
 	liver := make(plotter.XYs, len(points))

@@ -135,7 +135,7 @@ func TestGlycogenCurve(t *testing.T) {
 		t.Fatal(err)
 	}
 	text, _ := parseSVG(t, b)
-	for _, want := range []string{"Expected glycogen", "muscle glycogen", "liver glycogen", "race start", "Apr"} {
+	for _, want := range []string{"Estimated glycogen (model)", "muscle glycogen", "liver glycogen", "race start", "Apr"} {
 		if !strings.Contains(text, want) {
 			t.Errorf("SVG text lacks %q", want)
 		}

@@ -165,7 +165,7 @@ func (s *Server) renderPlanStart(w http.ResponseWriter, r *http.Request, status 
 	for _, e := range events {
 		opts = append(opts, web.Option{Value: web.ID(e.ID), Label: e.Name + ", " + web.DateTimeZone(e.StartsAt, e.TimeZone)})
 		l := web.EventLine{Name: e.Name, Start: e.LocalStart().Format("Mon 2 Jan 2006 15:04"), Zone: e.TimeZone,
-			Distance: "—", Duration: hoursWords(float64(e.ExpectedDurationMin)), Priority: e.Priority}
+			Distance: "—", Duration: hoursWords(float64(e.ExpectedDurationMin)), Priority: store.PriorityLabel(e.Priority)}
 		if e.DistanceKm != nil {
 			l.Distance = web.Num(*e.DistanceKm, 3) + " km"
 		}

@@ -249,7 +249,7 @@ type eventForm struct {
 	DistanceKm          *float64 `form:"distance_km" label:"Distance" unit:"km" validate:"omitempty,gt=0,lte=1000"`
 	ExpectedDurationMin *int     `form:"expected_duration_min" label:"Expected duration" validate:"required,gt=0,lte=2880" msg:"Expected duration must be more than 0 and at most 2880 minutes (48 hours)."`
 	Days                *int     `form:"days" label:"Days" validate:"omitempty,gte=1,lte=30" msg:"Days must be a whole number from 1 to 30."`
-	Priority            string   `form:"priority" label:"Priority" validate:"required,oneof=A B C" msg:"Choose priority A, B or C."`
+	Priority            string   `form:"priority" label:"Priority" validate:"required,oneof=A B C" msg:"Choose goal race, important race or training race."`
 	Notes               string   `form:"notes" label:"Notes" validate:"max=2000"`
 	Segments            string   `form:"segments" label:"Legs" validate:"max=2000"`
 	Stages              string   `form:"stages" label:"Stages" validate:"max=3000"`

@@ -114,7 +114,7 @@ func TestValidationMessages(t *testing.T) {
 		{"event start skipped by summer time", base + "/events", "events", merge(eventOK, "starts_at", "2027-03-28T02:30"), "starts_at",
 			"02:30 does not exist in Europe/Berlin on Sun 28 Mar 2027: the clocks go forward then. Give the start as the clocks there will show it, such as 03:30.", `value="2027-03-28T02:30"`},
 		{"event days", base + "/events", "events", merge(eventOK, "days", "31"), "days", "Days must be a whole number from 1 to 30.", ""},
-		{"event priority", base + "/events", "events", merge(eventOK, "priority", "D"), "priority", "Choose priority A, B or C.", ""},
+		{"event priority", base + "/events", "events", merge(eventOK, "priority", "D"), "priority", "Choose goal race, important race or training race.", ""},
 		{"event name", base + "/events", "events", merge(eventOK, "name", strings.Repeat("x", 201)), "name", "Name must be at most 200 characters.", ""},
 	}
 	for _, tc := range cases {

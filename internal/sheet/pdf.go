@@ -137,10 +137,14 @@ var (
 	colMuted   = rgb{91, 102, 112}
 	colRule    = rgb{200, 204, 198}
 	colHead    = rgb{239, 241, 236}
-	colOK      = rgb{45, 106, 62}
-	colNote    = rgb{51, 80, 122}
-	colCaution = rgb{138, 90, 0}
-	colOutside = rgb{164, 48, 28}
+	colCaution = rgb{138, 90, 0} // the recorded cautions' box
+	// Finding levels, quiet to loud in one family from slate to plum, so
+	// that they do not read as traffic lights; the word and the shape say
+	// the level too (the same colours as the plan page).
+	colOK      = rgb{74, 88, 102}
+	colNote    = rgb{31, 95, 122}
+	colLvCaut  = rgb{75, 63, 153}
+	colOutside = rgb{123, 36, 100}
 	colAmber   = rgb{255, 244, 220}
 	colDraft   = rgb{164, 48, 28}
 )

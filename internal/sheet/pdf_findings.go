@@ -166,7 +166,7 @@ func levelColor(level string) rgb {
 	case fuel.LevelNote:
 		return colNote
 	case fuel.LevelCaution:
-		return colCaution
+		return colLvCaut
 	case fuel.LevelOutside:
 		return colOutside
 	}

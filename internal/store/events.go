@@ -32,6 +32,27 @@ type Event struct {
 	Stages   []fuel.Stage
 }
 
+// Event priorities as stored (A, B, C: the codes of periodised training).
+const (
+	PriorityGoal      = "A"
+	PriorityImportant = "B"
+	PriorityTraining  = "C"
+)
+
+// PriorityLabel names an event priority in words: how much the season is
+// built around the race.
+func PriorityLabel(p string) string {
+	switch p {
+	case PriorityGoal:
+		return "Goal race"
+	case PriorityImportant:
+		return "Important race"
+	case PriorityTraining:
+		return "Training race"
+	}
+	return p
+}
+
 // Location is the event's time zone (UTC if the stored name no longer loads).
 func (e Event) Location() *time.Location {
 	loc, err := time.LoadLocation(e.TimeZone)
