@@ -362,3 +362,86 @@ func notedLink(t *testing.T, a *app) string {
 	}
 	return token
 }
+
+// TestBrowserAxeStaffPhoneWidth opens the client page and a plan (published,
+// then a draft) at 390 px, a phone's width: nothing runs past the screen's
+// edge (the document is no wider than the viewport), the links are folded
+// into a menu that opens, the day table is stacked rows with each figure
+// named, and every state passes axe-core.
+func TestBrowserAxeStaffPhoneWidth(t *testing.T) {
+	ctx := browserCtxFor(t, 4*time.Minute)
+	src := axeSource(t)
+	a := newApp(t)
+	res := loadDemo(t, a)
+	clientURL := a.srv.URL + "/clients/" + itoa64(res.IDs.Clients["marathoner"])
+	err := chromedp.Do(ctx, chromedp.EmulateViewport(390, 844),
+		chromedp.Navigate(a.srv.URL+"/signin"),
+		chromedp.WaitVisible(chromedp.ID("f-email")),
+		chromedp.SendKeys(chromedp.ID("f-email"), res.Email),
+		chromedp.SendKeys(chromedp.ID("f-password"), res.Password),
+		chromedp.Submit(chromedp.ID("f-password")),
+		chromedp.WaitVisible(chromedp.CSS("details.navmenu > summary")),
+	)
+	if err != nil {
+		t.Fatalf("sign in at 390 px: %v", err)
+	}
+	// fits checks the page shown now: no sideways scrolling, and each of
+	// the selectors visible on screen, inside the viewport's width.
+	fits := func(page string, visible ...string) {
+		t.Helper()
+		widths, err := chromedp.Run(ctx, chromedp.Evaluate[[]float64](`[document.documentElement.scrollWidth, window.innerWidth]`))
+		if err != nil {
+			t.Fatalf("%s: %v", page, err)
+		}
+		if widths[1] != 390 || widths[0] > widths[1] {
+			t.Errorf("%s: document %v px wide in a %v px viewport (want 390, no wider)", page, widths[0], widths[1])
+		}
+		for _, sel := range visible {
+			js := fmt.Sprintf(`(() => { const e = document.querySelector(%q); if (!e) return "missing";
+				const r = e.getBoundingClientRect(), s = getComputedStyle(e);
+				if (s.display === "none" || s.visibility === "hidden" || r.width === 0 || r.height === 0) return "hidden";
+				if (r.left < 0 || r.right > window.innerWidth) return "outside the screen (" + Math.round(r.left) + " to " + Math.round(r.right) + " px)";
+				return "" })()`, sel)
+			why, err := chromedp.Run(ctx, chromedp.Evaluate[string](js))
+			if err != nil || why != "" {
+				t.Errorf("%s: %s is %s %v", page, sel, why, err)
+			}
+		}
+		hidden, _ := chromedp.Run(ctx, chromedp.Evaluate[string](`getComputedStyle(document.querySelector("nav.wide")).display`))
+		if hidden != "none" {
+			t.Errorf("%s: the row of links shows at phone width (display %q)", page, hidden)
+		}
+		shot(t, ctx, "phone-width-"+strings.ReplaceAll(page, " ", "-"))
+	}
+
+	axeVisit(t, ctx, src, "client at 390 px", clientURL)
+	fits("client", "main h1", "#body-mass .latest", "details.navmenu > summary", "#events td", "#body-mass-history td:nth-child(2)")
+	// The menu opens without script and shows the links.
+	if err := chromedp.Do(ctx, chromedp.Click(chromedp.CSS("details.navmenu > summary")),
+		chromedp.WaitVisible(chromedp.CSS(`nav.folded a[href="/foods"]`))); err != nil {
+		t.Fatalf("open the menu: %v", err)
+	}
+	axeCheck(t, ctx, src, "client at 390 px, menu open")
+	fits("client, menu open", `nav.folded a[href="/clients"]`, `nav.folded button.link`)
+
+	planPage := firstHref(t, ctx, `#plans a[href*="/plans/"]:not([href*="/plans/new"])`)
+	axeVisit(t, ctx, src, "plan at 390 px", planPage)
+	fits("plan", "main h1", "#plan-days tr.day td:nth-child(4)", "#plan-days tr.day td:nth-child(5)")
+	// Stacked: each day is a block, its figures named beside them.
+	stacked, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`(() => { const row = document.querySelector("#plan-days tr.day");
+		const cell = row.querySelector("td:nth-child(5)");
+		return [getComputedStyle(row).display, getComputedStyle(cell, "::before").content] })()`))
+	if err != nil || len(stacked) != 2 || stacked[0] != "block" || stacked[1] != `"Carbohydrate g"` {
+		t.Errorf("day table at 390 px: row display and cell name %q, %v; want block and \"Carbohydrate g\"", stacked, err)
+	}
+
+	// A draft, with its input boxes.
+	if _, err := chromedp.Run(ctx, chromedp.Evaluate[bool](`(() => { const f = document.querySelector('form[action$="/revise"]'); if (!f) return false; f.requestSubmit(); return true })()`)); err != nil {
+		t.Fatalf("start a new version: %v", err)
+	}
+	if err := chromedp.Do(ctx, chromedp.WaitVisible(chromedp.ID("plan-edit"))); err != nil {
+		t.Fatalf("the new draft shows no edit form (%s): %v", pageURL(ctx), err)
+	}
+	axeCheck(t, ctx, src, "plan draft at 390 px")
+	fits("plan draft", "main h1", "#plan-days tr.day td:nth-child(4) input", "#plan-edit button[value=save]", "table.feeds td:nth-child(3)")
+}
