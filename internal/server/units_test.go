@@ -138,7 +138,7 @@ func TestPoundsEverywhere(t *testing.T) {
 	// The phone page, with figures shown, gives the mass and the gain in lb.
 	token := makeLink(t, b, c.ID, "phone")
 	_, phone := getPublic(t, a, "/c/"+token)
-	for _, want := range []string{"Worked out for a body mass of 150.4 lb.", "Expect to weigh about " + gain + " more"} {
+	for _, want := range []string{`Worked out for a body mass of <span class="fig">150.4 lb</span>.`, `Expect to weigh about <span class="fig">` + gain + `</span> more`} {
 		if !strings.Contains(phone, want) {
 			t.Errorf("phone page lacks %q\n%s", want, phone)
 		}
