@@ -64,7 +64,7 @@ func linkSheet(o store.LinkOpen, p linkPlan, now time.Time) sheet.Sheet {
 		KindLabel: kindLabel(p.Plan.Kind), Version: v.Version, Status: sheet.StatusPublished, PublishedAt: v.PublishedAt,
 		BodyMassKg: v.BodyMassKg, Training: trainingByDate(v.Request.Training), Plan: v.Result,
 		Suggestions: p.Suggestions, Printed: now, PlanNote: v.Notes.Plan, DayNotes: v.Notes.Days,
-		SharedNote: splitCautions(o.SharedNote), ShowFigures: o.ShowFigures,
+		SharedNote: splitCautions(o.SharedNote), ShowFigures: o.ShowFigures, MassUnit: o.MassUnit,
 	}
 	if ev := v.Request.Event; ev != nil {
 		start := ev.StartsAt

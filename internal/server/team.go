@@ -219,7 +219,7 @@ func (s *Server) teamPractice(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	if in.MassUnit != string(s.PracticeMassUnit(r)) {
+	if in.MassUnit != "" && in.MassUnit != string(s.PracticeMassUnit(r)) {
 		if err := s.Store.SetSetting(r.Context(), Actor(r), store.SettingMassUnit, in.MassUnit); err != nil {
 			s.ServerError(w, r, err)
 			return

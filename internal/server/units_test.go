@@ -143,6 +143,14 @@ func TestPoundsEverywhere(t *testing.T) {
 			t.Errorf("phone page lacks %q\n%s", want, phone)
 		}
 	}
+	// The athlete's sheet from the link, figures shown: the gain in lb.
+	athlete := b.getPDF("/c/" + token + "/sheet.pdf")
+	athlete.mustPDF(t)
+	if text, ok := sheettest.Text(t, athlete.body); ok {
+		if want := "You may weigh about " + fold(gain) + " more"; !strings.Contains(fold(text), want) {
+			t.Errorf("athlete's sheet lacks %q:\n%.3000s", want, text)
+		}
+	}
 }
 
 // The practice default applies to every client who chose no unit, and a
@@ -164,12 +172,12 @@ func TestPracticeMassUnit(t *testing.T) {
 	t.Cleanup(func() {
 		_, _ = a.st.Pool.Exec(context.Background(), `DELETE FROM settings WHERE key = 'mass_unit'`)
 	})
-	res := admin.post("/team/practice", url.Values{"practice_name": {"Units practice"}, "mass_unit": {"stone"}})
+	res := admin.post("/team/practice", url.Values{"practice_name": {"Units practice"}, "practice_time_zone": {"Europe/Oslo"}, "mass_unit": {"stone"}})
 	if res.status != http.StatusUnprocessableEntity {
 		t.Fatalf("unit stone: status %d", res.status)
 	}
 	res.mustContain(t, "Choose kg or lb.")
-	admin.post("/team/practice", url.Values{"practice_name": {"Units practice"}, "mass_unit": {"lb"}}).mustRedirect(t, "/team")
+	admin.post("/team/practice", url.Values{"practice_name": {"Units practice"}, "practice_time_zone": {"Europe/Oslo"}, "mass_unit": {"lb"}}).mustRedirect(t, "/team")
 	admin.get("/team").mustContain(t, `name="mass_unit" value="lb" checked`)
 
 	// 70 kg = 154.3 lb (70 / 0.45359237 = 154.32).

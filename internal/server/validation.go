@@ -350,5 +350,5 @@ type roleForm struct {
 type practiceForm struct {
 	PracticeName string `form:"practice_name" label:"Practice name" validate:"required,max=120"`
 	TimeZone     string `form:"practice_time_zone" label:"Time zone" validate:"required,iana_zone"`
-	MassUnit     string `form:"mass_unit" label:"Body-mass unit" validate:"required,oneof=kg lb" msg:"Choose kg or lb."`
+	MassUnit     string `form:"mass_unit" label:"Body-mass unit" validate:"omitempty,oneof=kg lb" msg:"Choose kg or lb."` // empty: unchanged
 }

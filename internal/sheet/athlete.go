@@ -5,6 +5,8 @@ import (
 	"strings"
 	"time"
 
+	"larder/internal/mass"
+
 	"larder/internal/fuel"
 	"larder/internal/menu"
 )
@@ -154,11 +156,12 @@ func (d *doc) athleteEvent() {
 	if p.ExpectedMassGainKg != nil {
 		v := "You may weigh a little more by the start: the carbohydrate you store holds water. This is expected and is not fat."
 		if s.ShowFigures {
-			gain := num(*p.ExpectedMassGainKg, 1)
-			if hi := p.ExpectedMassGainKgMax; hi != nil && *hi != *p.ExpectedMassGainKg {
-				gain += "–" + num(*hi, 1)
+			hi := *p.ExpectedMassGainKg
+			if p.ExpectedMassGainKgMax != nil {
+				hi = *p.ExpectedMassGainKgMax
 			}
-			v = "You may weigh about " + gain + " kg more by the start: the carbohydrate you store holds water. This is expected and is not fat."
+			v = "You may weigh about " + mass.Difference(*p.ExpectedMassGainKg, hi, s.unit()) +
+				" more by the start: the carbohydrate you store holds water. This is expected and is not fat."
 		}
 		rows = append(rows, pair{"Body weight", v})
 	}
