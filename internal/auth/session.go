@@ -51,14 +51,16 @@ const SessionLifetime = 12 * time.Hour
 // request to move its expiry.
 func NewSessionManager(pool *pgxpool.Pool, opt SessionOptions) *scs.SessionManager {
 	m := scs.New()
+	var ps *pgxstore.PostgresStore
 	switch {
 	case opt.CleanupInterval < 0:
-		m.Store = pgxstore.NewWithCleanupInterval(pool, 0)
+		ps = pgxstore.NewWithCleanupInterval(pool, 0)
 	case opt.CleanupInterval == 0:
-		m.Store = pgxstore.New(pool)
+		ps = pgxstore.New(pool)
 	default:
-		m.Store = pgxstore.NewWithCleanupInterval(pool, opt.CleanupInterval)
+		ps = pgxstore.NewWithCleanupInterval(pool, opt.CleanupInterval)
 	}
+	m.Store = sessionStore{PostgresStore: ps, pool: pool}
 	m.Lifetime = SessionLifetime
 	m.Cookie.Name = "larder_session"
 	m.Cookie.HttpOnly = true
@@ -71,7 +73,7 @@ func NewSessionManager(pool *pgxpool.Pool, opt SessionOptions) *scs.SessionManag
 // StopCleanup stops the expired-session sweeper of a manager made by
 // NewSessionManager, if it runs one.
 func StopCleanup(m *scs.SessionManager) {
-	if s, ok := m.Store.(*pgxstore.PostgresStore); ok {
+	if s, ok := m.Store.(sessionStore); ok {
 		s.StopCleanup()
 	}
 }

@@ -172,9 +172,14 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 	axeVisit(t, ctx, src, "client's phone page", a.srv.URL+"/c/"+token)
 	axeVisit(t, ctx, src, "client link no longer valid", a.srv.URL+"/c/"+strings.Repeat("A", 43))
 	axeVisit(t, ctx, src, "client's phone page with the dietitian's notes", a.srv.URL+"/c/"+notedLink(t, a))
+	// While the database cannot be reached: a server whose pool points at
+	// a loopback port nothing listens on.
+	dead := unreachableServer(t)
+	axeVisit(t, ctx, src, "client link while the database is unreachable", dead+"/c/"+strings.Repeat("A", 43))
 	if err := chromedp.Do(ctx, chromedp.EmulateViewport(1280, 1000)); err != nil {
 		t.Fatal(err)
 	}
+	axeVisit(t, ctx, src, "staff page while the database is unreachable", dead+"/setup")
 
 	axeVisit(t, ctx, src, "sign-in", a.srv.URL+"/signin")
 	submitUnchecked(t, ctx, "sign-in refused", "form")

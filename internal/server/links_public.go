@@ -74,13 +74,17 @@ func (s *Server) openLink(w http.ResponseWriter, r *http.Request) (store.LinkOpe
 func (s *Server) linkGone(w http.ResponseWriter, r *http.Request) {
 	w.Header().Set("Content-Type", "text/html; charset=utf-8")
 	w.WriteHeader(http.StatusNotFound)
-	if err := web.ClientLinkGone().Render(r.Context(), w); err != nil {
+	if err := web.ClientLinkGone().Render(renderCtx(r), w); err != nil {
 		s.Log.Error("render", "path", "/c/…", "err", err)
 	}
 }
 
 // linkError logs without the token (it is a secret) and answers plainly.
 func (s *Server) linkError(w http.ResponseWriter, r *http.Request, err error) {
+	if dbUnavailable(err) {
+		s.Unavailable(w, r, err) // logs the path redacted
+		return
+	}
 	s.Log.Error("client link", "err", err)
 	http.Error(w, "Something went wrong on our side. Please try again later.", http.StatusInternalServerError)
 }
@@ -195,7 +199,7 @@ func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
 		fillDay(&v, p, today, now)
 	}
 	w.Header().Set("Content-Type", "text/html; charset=utf-8")
-	if err := writePage(r.Context(), w, http.StatusOK, web.ClientDayPage(v)); err != nil {
+	if err := writePage(renderCtx(r), w, http.StatusOK, web.ClientDayPage(v)); err != nil {
 		s.Log.Error("render", "path", "/c/…", "err", err)
 	}
 }

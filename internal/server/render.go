@@ -1,9 +1,11 @@
 package server
 
 import (
+	"context"
 	"errors"
 	"net/http"
 	"strconv"
+	"strings"
 
 	"larder/internal/mass"
 
@@ -26,10 +28,17 @@ func (s *Server) Render(w http.ResponseWriter, r *http.Request, status int, titl
 	}
 	w.Header().Set("Content-Type", "text/html; charset=utf-8")
 	w.Header().Set("Cache-Control", "no-store")
-	if err := writePage(r.Context(), w, status, web.Layout(p, body)); err != nil {
+	if err := writePage(renderCtx(r), w, status, web.Layout(p, body)); err != nil {
 		s.Log.Error("render", "path", logPath(r), "err", err)
 	}
 }
+
+// renderCtx is the context pages render under: the request's, without its
+// time limit (timeLimit). templ renders nothing under a context that is
+// done, and the limit is there to bound waits on the database, not to blank
+// a page whose data has been loaded. A browser that went away still ends
+// the writes: they fail on the closed connection.
+func renderCtx(r *http.Request) context.Context { return context.WithoutCancel(r.Context()) }
 
 // PracticeName is the practice_name setting, or the default: as read with
 // the signed-in user at the start of this request (loadUser), else read now.
@@ -64,10 +73,16 @@ func Redirect(w http.ResponseWriter, r *http.Request, url string) {
 	http.Redirect(w, r, url, http.StatusSeeOther)
 }
 
-// ServerError logs err and shows a plain 500 page, or a 422 page when the
-// database refused text it cannot hold (a NUL or bytes that are not UTF-8)
-// that no form check caught, such as a search term.
+// ServerError answers an error a handler cannot handle itself: the "try
+// again" 503 when the database is unreachable or did not answer in time
+// (Unavailable), a 422 page when the database refused text it cannot hold (a
+// NUL or bytes that are not UTF-8) that no form check caught, such as a
+// search term, and otherwise a logged 500 (JSON on the API).
 func (s *Server) ServerError(w http.ResponseWriter, r *http.Request, err error) {
+	if dbUnavailable(err) {
+		s.Unavailable(w, r, err)
+		return
+	}
 	if isUntextError(err) {
 		s.Log.Info("refused text the database cannot hold", "method", r.Method, "path", logPath(r))
 		s.Render(w, r, http.StatusUnprocessableEntity, "Text not accepted", "",
@@ -75,6 +90,10 @@ func (s *Server) ServerError(w http.ResponseWriter, r *http.Request, err error) 
 		return
 	}
 	s.Log.Error("server error", "method", r.Method, "path", logPath(r), "err", err)
+	if strings.HasPrefix(r.URL.Path, "/api/") {
+		writeJSON(w, http.StatusInternalServerError, map[string]string{"error": "the request could not be completed because of a problem on the server"})
+		return
+	}
 	s.Render(w, r, http.StatusInternalServerError, "Error", "",
 		web.Message("Something went wrong", "The request could not be completed because of a problem on our side. Nothing was changed. Please try again; if it keeps happening, tell your administrator."))
 }

@@ -81,6 +81,9 @@ func New(cfg Config) *Server {
 	if s.requestTimeout <= 0 {
 		s.requestTimeout = DefaultRequestTimeout
 	}
+	// A session that cannot be read or saved is a database fault like any
+	// other: scs's own answer would be a bare 500.
+	s.Sessions.ErrorFunc = s.ServerError
 	s.handler = s.routes()
 	return s
 }
