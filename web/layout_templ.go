@@ -451,7 +451,7 @@ func Unavailable() templ.Component {
 		}
 		ctx = templ.InitializeContext(ctx)
 		ctx = templ.ClearChildren(ctx)
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 24, "<h1>Try again shortly</h1><p>Larder cannot reach its database just now, so this page could not be shown. If you were saving something, it was either saved whole or not at all: in a minute, go back, check the record and send it again if it is not there.</p><p>If this lasts more than a few minutes, tell your administrator.</p>")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 28, "<h1>Try again shortly</h1><p>Larder cannot reach its database just now, so this page could not be shown. If you were saving something, it was either saved whole or not at all: in a minute, go back, check the record and send it again if it is not there.</p><p>If this lasts more than a few minutes, tell your administrator.</p>")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}

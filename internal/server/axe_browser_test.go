@@ -212,6 +212,16 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 	} {
 		axeVisit(t, ctx, src, p.name, a.srv.URL+p.path)
 	}
+	// A colleague's role changed from a Team page opened before someone
+	// else changed their account: refused, with the message in their row.
+	colleague := a.user(store.RoleDietitian, false)
+	axeVisit(t, ctx, src, "team", a.srv.URL+"/team")
+	if err := a.st.SetUserDisabled(bg, store.System, colleague.ID, true); err != nil {
+		t.Fatal(err)
+	}
+	submitUnchecked(t, ctx, "team, a change refused as stale", fmt.Sprintf(`form[action="/team/%d/role"]`, colleague.ID))
+	axeCheck(t, ctx, src, "team, a change refused as stale")
+
 	axeVisit(t, ctx, src, "new client", a.srv.URL+"/clients/new")
 	submitUnchecked(t, ctx, "new client with errors", "main form")
 	axeCheck(t, ctx, src, "new client with errors")

@@ -59,8 +59,8 @@ func TestOverviewPage(t *testing.T) {
 	t.Cleanup(func() {
 		_, _ = a.st.Pool.Exec(context.Background(), `DELETE FROM settings WHERE key = $1`, store.SettingPracticeTimeZone)
 	})
-	admin.post("/team/practice", url.Values{"practice_name": {"Zone Practice"}, "practice_time_zone": {"Pacific/Auckland"}}).
-		mustRedirect(t, "/team")
+	admin.post("/team/practice", url.Values{"practice_name": {"Zone Practice"}, "practice_time_zone": {"Pacific/Auckland"},
+		"version": {formVersionAt(t, admin.get("/team").body, "/team/practice")}}).mustRedirect(t, "/team")
 	admin.get("/team").mustContain(t, `value="Pacific/Auckland"`)
 	// 10:00 UTC on 1 March is 23:00 in Auckland (NZDT, UTC+13): still 1 March there.
 	want := testNow.In(mustZone(t, "Pacific/Auckland")).Format("Mon 2 Jan 2006")

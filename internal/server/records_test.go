@@ -242,12 +242,20 @@ func TestTeamManagement(t *testing.T) {
 		mustContain(t, "Someone on the team already signs in with this email.")
 
 	nid := itoa(newcomer.ID)
-	admin.post("/team/"+nid+"/role", url.Values{"role": {"admin"}}).mustRedirect(t, "/team")
-	admin.post("/team/"+nid+"/disable", nil).mustRedirect(t, "/team")
+	// Each change is made from a page showing the account as it is.
+	version := func() string {
+		u, err := a.st.UserByID(ctx, newcomer.ID)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return itoa(int64(u.Version))
+	}
+	admin.post("/team/"+nid+"/role", url.Values{"role": {"admin"}, "version": {version()}}).mustRedirect(t, "/team")
+	admin.post("/team/"+nid+"/disable", url.Values{"version": {version()}}).mustRedirect(t, "/team")
 	if u, _ := a.st.UserByID(ctx, newcomer.ID); u.Role != store.RoleAdmin || !u.Disabled {
 		t.Fatalf("after role+disable: %+v", u)
 	}
-	admin.post("/team/"+nid+"/enable", nil).mustRedirect(t, "/team")
+	admin.post("/team/"+nid+"/enable", url.Values{"version": {version()}}).mustRedirect(t, "/team")
 	before, _ := a.st.UserByID(ctx, newcomer.ID)
 	admin.post("/team/"+nid+"/password", nil).mustContain(t, "New password for Newcomer: ", "They can change it under their name at the top of the page.")
 	after, _ := a.st.UserByID(ctx, newcomer.ID)

@@ -3,6 +3,7 @@ package server
 import (
 	"errors"
 	"net/http"
+	"strconv"
 	"strings"
 
 	"larder/internal/auth"
@@ -23,36 +24,60 @@ func (s *Server) teamPage(w http.ResponseWriter, r *http.Request) {
 // Cache-Control: no-store) and nowhere else — not into the session, whose
 // row would keep it, nor into a log.
 func (s *Server) renderTeam(w http.ResponseWriter, r *http.Request, status int, add, practice forms.Form, secret string) {
+	s.renderTeamData(w, r, status, web.TeamData{Add: add, Practice: practice, Secret: secret})
+}
+
+// renderTeamData shows the Team page with d's forms (and refused change, if
+// any); it loads the team, the practice's name and the recent changes.
+func (s *Server) renderTeamData(w http.ResponseWriter, r *http.Request, status int, d web.TeamData) {
 	users, err := s.Store.ListUsers(r.Context())
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
-	if add.Values == nil {
-		add = forms.New()
+	if d.Add.Values == nil {
+		d.Add = forms.New()
 	}
-	if add.Get("role") == "" {
-		add.Values.Set("role", store.RoleDietitian)
+	if d.Add.Get("role") == "" {
+		d.Add.Values.Set("role", store.RoleDietitian)
 	}
-	if practice.Values == nil {
-		practice = forms.New()
-		practice.Values.Set("practice_name", s.PracticeName(r))
+	if d.Practice.Values == nil {
+		d.Practice = forms.New()
+		d.Practice.Values.Set("practice_name", s.PracticeName(r))
 		zone, err := s.Store.Setting(r.Context(), store.SettingPracticeTimeZone, store.DefaultPracticeTimeZone)
 		if err != nil {
 			s.ServerError(w, r, err)
 			return
 		}
-		practice.Values.Set("practice_time_zone", zone)
-		practice.Values.Set("mass_unit", string(s.PracticeMassUnit(r)))
+		d.Practice.Values.Set("practice_time_zone", zone)
+		d.Practice.Values.Set("mass_unit", string(s.PracticeMassUnit(r)))
+		if err := s.setPracticeVersion(r, d.Practice); err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
 	}
 	recent, err := s.Store.RecentAudit(r.Context(), 20)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
-	s.Render(w, r, status, "Team", "team", web.Team(web.TeamData{
-		Me: *CurrentUser(r), Users: users, Add: add, Practice: practice, Recent: recent, Secret: secret,
-	}))
+	d.Me, d.Users, d.Recent = *CurrentUser(r), users, recent
+	s.Render(w, r, status, "Team", "team", web.Team(d))
+}
+
+// staleAccount answers a change to a staff account made from a Team page
+// opened before someone else changed that account: nothing is saved, the
+// page is shown again with the account as it is now, what was chosen is kept
+// in its row, and the row's forms carry the account's current version, so
+// pressing again goes through on purpose.
+func (s *Server) staleAccount(w http.ResponseWriter, r *http.Request, u store.User, role string) {
+	msg := "Someone changed " + u.Name + "'s account after you opened this page, so nothing was saved. "
+	if role != "" {
+		msg += "The row shows the account as it is now, with the role you chose still selected: press Change again to save it."
+	} else {
+		msg += "The row shows the account as it is now: press the button again if you still mean it."
+	}
+	s.renderTeamData(w, r, http.StatusConflict, web.TeamData{Stale: web.TeamStale{UserID: u.ID, Role: role, Message: msg}})
 }
 
 func (s *Server) teamAdd(w http.ResponseWriter, r *http.Request) {
@@ -130,7 +155,11 @@ func (s *Server) teamRole(w http.ResponseWriter, r *http.Request) {
 		Redirect(w, r, "/team")
 		return
 	}
-	if err := s.Store.SetUserRole(r.Context(), Actor(r), u.ID, in.Role); err != nil {
+	if err := s.Store.SetUserRole(guarded(r, store.VersionUser, u.ID), Actor(r), u.ID, in.Role); err != nil {
+		if errors.Is(err, store.ErrStale) {
+			s.staleAccount(w, r, u, in.Role)
+			return
+		}
 		s.StoreError(w, r, err)
 		return
 	}
@@ -140,7 +169,7 @@ func (s *Server) teamRole(w http.ResponseWriter, r *http.Request) {
 
 func (s *Server) teamDisable(w http.ResponseWriter, r *http.Request) {
 	u, ok := s.teamUser(w, r)
-	if !ok {
+	if !ok || !s.ParseForm(w, r) {
 		return
 	}
 	if u.ID == CurrentUser(r).ID {
@@ -148,7 +177,11 @@ func (s *Server) teamDisable(w http.ResponseWriter, r *http.Request) {
 		Redirect(w, r, "/team")
 		return
 	}
-	if err := s.Store.SetUserDisabled(r.Context(), Actor(r), u.ID, true); err != nil {
+	if err := s.Store.SetUserDisabled(guarded(r, store.VersionUser, u.ID), Actor(r), u.ID, true); err != nil {
+		if errors.Is(err, store.ErrStale) {
+			s.staleAccount(w, r, u, "")
+			return
+		}
 		s.StoreError(w, r, err)
 		return
 	}
@@ -158,10 +191,14 @@ func (s *Server) teamDisable(w http.ResponseWriter, r *http.Request) {
 
 func (s *Server) teamEnable(w http.ResponseWriter, r *http.Request) {
 	u, ok := s.teamUser(w, r)
-	if !ok {
+	if !ok || !s.ParseForm(w, r) {
 		return
 	}
-	if err := s.Store.SetUserDisabled(r.Context(), Actor(r), u.ID, false); err != nil {
+	if err := s.Store.SetUserDisabled(guarded(r, store.VersionUser, u.ID), Actor(r), u.ID, false); err != nil {
+		if errors.Is(err, store.ErrStale) {
+			s.staleAccount(w, r, u, "")
+			return
+		}
 		s.StoreError(w, r, err)
 		return
 	}
@@ -211,11 +248,18 @@ func (s *Server) teamPractice(w http.ResponseWriter, r *http.Request) {
 		s.renderTeam(w, r, http.StatusUnprocessableEntity, forms.Form{}, f, "")
 		return
 	}
-	if err := s.Store.SetSetting(r.Context(), Actor(r), store.SettingPracticeName, in.PracticeName); err != nil {
-		s.ServerError(w, r, err)
+	err := s.Store.SetSettingsAt(r.Context(), Actor(r), practiceFormVersions(r), []store.SettingValue{
+		{Key: store.SettingPracticeName, Value: in.PracticeName}, {Key: store.SettingPracticeTimeZone, Value: in.TimeZone}})
+	if errors.Is(err, store.ErrStale) {
+		f.Errors.Add("version", staleMessage)
+		if err := s.setPracticeVersion(r, f); err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
+		s.renderTeam(w, r, http.StatusConflict, forms.Form{}, f, "")
 		return
 	}
-	if err := s.Store.SetSetting(r.Context(), Actor(r), store.SettingPracticeTimeZone, in.TimeZone); err != nil {
+	if err != nil {
 		s.ServerError(w, r, err)
 		return
 	}
@@ -227,4 +271,38 @@ func (s *Server) teamPractice(w http.ResponseWriter, r *http.Request) {
 	}
 	s.Flash(r, "Practice details saved.")
 	Redirect(w, r, "/team")
+}
+
+// The practice form saves two settings at once, so its "version" holds the
+// version of each, name first: "3.1".
+var practiceKeys = []string{store.SettingPracticeName, store.SettingPracticeTimeZone}
+
+// setPracticeVersion puts the practice settings' current versions into f.
+func (s *Server) setPracticeVersion(r *http.Request, f forms.Form) error {
+	parts := make([]string, len(practiceKeys))
+	for i, key := range practiceKeys {
+		v, err := s.Store.RecordVersion(r.Context(), store.VersionSetting, key)
+		if err != nil {
+			return err
+		}
+		parts[i] = strconv.Itoa(v)
+	}
+	f.Values.Set("version", strings.Join(parts, "."))
+	return nil
+}
+
+// practiceFormVersions reads the versions the practice form was opened at;
+// a missing or damaged one is -1, which no setting has.
+func practiceFormVersions(r *http.Request) []int {
+	parts := strings.Split(r.PostForm.Get("version"), ".")
+	out := make([]int, len(practiceKeys))
+	for i := range out {
+		out[i] = -1
+		if len(parts) == len(practiceKeys) {
+			if v, err := strconv.Atoi(parts[i]); err == nil && v >= 0 {
+				out[i] = v
+			}
+		}
+	}
+	return out
 }

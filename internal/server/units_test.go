@@ -177,7 +177,8 @@ func TestPracticeMassUnit(t *testing.T) {
 		t.Fatalf("unit stone: status %d", res.status)
 	}
 	res.mustContain(t, "Choose kg or lb.")
-	admin.post("/team/practice", url.Values{"practice_name": {"Units practice"}, "practice_time_zone": {"Europe/Oslo"}, "mass_unit": {"lb"}}).mustRedirect(t, "/team")
+	admin.post("/team/practice", url.Values{"practice_name": {"Units practice"}, "practice_time_zone": {"Europe/Oslo"}, "mass_unit": {"lb"},
+		"version": {formVersionAt(t, admin.get("/team").body, "/team/practice")}}).mustRedirect(t, "/team")
 	admin.get("/team").mustContain(t, `name="mass_unit" value="lb" checked`)
 
 	// 70 kg = 154.3 lb (70 / 0.45359237 = 154.32).

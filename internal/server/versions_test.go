@@ -1,6 +1,8 @@
 package server
 
 import (
+	"context"
+	"html"
 	"net/http"
 	"net/url"
 	"regexp"
@@ -89,6 +91,126 @@ func TestStaleEditsRefused(t *testing.T) {
 		}
 		if n := a.count(`SELECT count(*) FROM clients WHERE id = $1 AND sport = 'Overwritten'`, c.ID); n != 0 {
 			t.Fatal("a client save without its loaded field overwrote the record")
+		}
+	})
+}
+
+// formVersionAt is the version carried by the form posting to action.
+func formVersionAt(t *testing.T, body, action string) string {
+	t.Helper()
+	m := regexp.MustCompile(`action="` + regexp.QuoteMeta(action) + `"[^>]*>\s*<input type="hidden" name="version" value="([\d.]+)"`).FindStringSubmatch(body)
+	if m == nil {
+		t.Fatalf("no version in the form to %s\n%s", action, body)
+	}
+	return m[1]
+}
+
+// Two admins have the Team page open; the first changes a colleague's
+// account, the second's change from the older page is refused (409) with a
+// message in that account's row, the role they chose still selected and
+// nothing saved; pressing again goes through. The practice's name alike,
+// keeping the name typed. Before, the later save silently won.
+func TestStaleTeamAndPracticeEditsRefused(t *testing.T) {
+	a := newApp(t)
+	ctx := context.Background()
+	first, _ := a.signedIn(store.RoleAdmin)
+	second, _ := a.signedIn(store.RoleAdmin)
+	colleague := a.user(store.RoleDietitian, false)
+	path := "/team/" + itoa(colleague.ID)
+	current := func() store.User {
+		u, err := a.st.UserByID(ctx, colleague.ID)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return u
+	}
+
+	t.Run("role", func(t *testing.T) {
+		old := formVersionAt(t, second.get("/team").body, path+"/role")
+		first.post(path+"/disable", url.Values{"version": {formVersionAt(t, first.get("/team").body, path+"/disable")}}).mustRedirect(t, "/team")
+
+		res := second.post(path+"/role", url.Values{"role": {"admin"}, "version": {old}})
+		if res.status != http.StatusConflict {
+			t.Fatalf("stale role change: %d, want 409\n%s", res.status, res.body)
+		}
+		res.mustContain(t, html.EscapeString("Someone changed "+colleague.Name+"'s account after you opened this page, so nothing was saved."),
+			"with the role you chose still selected")
+		row := res.body[strings.Index(res.body, `action="`+path+`/role"`):]
+		row = row[:strings.Index(row, "</tr>")]
+		if !strings.Contains(row, `<option value="admin" selected>`) || !strings.Contains(row, "disabled") {
+			t.Errorf("the row does not keep the chosen role and show the account as it is now:\n%s", row)
+		}
+		if u := current(); u.Role != store.RoleDietitian || !u.Disabled {
+			t.Fatalf("after the refused change: %+v", u)
+		}
+		// Pressing Change again on the refused page is deliberate.
+		second.post(path+"/role", url.Values{"role": {"admin"}, "version": {formVersionAt(t, res.body, path+"/role")}}).mustRedirect(t, "/team")
+		if u := current(); u.Role != store.RoleAdmin {
+			t.Fatalf("the deliberate change was not saved: %+v", u)
+		}
+		if res := second.post(path+"/role", url.Values{"role": {"dietitian"}}); res.status != http.StatusConflict {
+			t.Fatalf("role change without a version: %d, want 409", res.status)
+		}
+	})
+
+	t.Run("enable and disable", func(t *testing.T) {
+		old := formVersionAt(t, second.get("/team").body, path+"/enable")
+		first.post(path+"/role", url.Values{"role": {"dietitian"}, "version": {formVersionAt(t, first.get("/team").body, path+"/role")}}).mustRedirect(t, "/team")
+		res := second.post(path+"/enable", url.Values{"version": {old}})
+		if res.status != http.StatusConflict {
+			t.Fatalf("stale enable: %d, want 409\n%s", res.status, res.body)
+		}
+		res.mustContain(t, "press the button again if you still mean it")
+		if !current().Disabled {
+			t.Fatal("a stale enable went through")
+		}
+		second.post(path+"/enable", url.Values{"version": {formVersionAt(t, res.body, path+"/enable")}}).mustRedirect(t, "/team")
+		if current().Disabled {
+			t.Fatal("the deliberate enable was not saved")
+		}
+	})
+
+	t.Run("practice name and zone", func(t *testing.T) {
+		wasName, err := a.st.Setting(ctx, store.SettingPracticeName, store.DefaultPracticeName)
+		if err != nil {
+			t.Fatal(err)
+		}
+		wasZone, err := a.st.Setting(ctx, store.SettingPracticeTimeZone, store.DefaultPracticeTimeZone)
+		if err != nil {
+			t.Fatal(err)
+		}
+		t.Cleanup(func() {
+			_ = a.st.SetSetting(ctx, store.System, store.SettingPracticeName, wasName)
+			_ = a.st.SetSetting(ctx, store.System, store.SettingPracticeTimeZone, wasZone)
+		})
+		setting := func(key string) string {
+			v, err := a.st.Setting(ctx, key, "")
+			if err != nil {
+				t.Fatal(err)
+			}
+			return v
+		}
+		old := formVersionAt(t, second.get("/team").body, "/team/practice")
+		first.post("/team/practice", url.Values{"practice_name": {"Harbour Sports Nutrition"}, "practice_time_zone": {"Europe/Oslo"},
+			"version": {formVersionAt(t, first.get("/team").body, "/team/practice")}}).mustRedirect(t, "/team")
+
+		typed := url.Values{"practice_name": {"Quayside Fuelling Clinic"}, "practice_time_zone": {"Europe/Lisbon"}, "version": {old}}
+		res := second.post("/team/practice", typed)
+		if res.status != http.StatusConflict {
+			t.Fatalf("stale practice details: %d, want 409\n%s", res.status, res.body)
+		}
+		res.mustContain(t, "Someone saved a change to this record after you opened this form", `value="Quayside Fuelling Clinic"`, `value="Europe/Lisbon"`)
+		if name, zone := setting(store.SettingPracticeName), setting(store.SettingPracticeTimeZone); name != "Harbour Sports Nutrition" || zone != "Europe/Oslo" {
+			t.Fatalf("the first save was not kept whole: %q, %q", name, zone)
+		}
+		typed.Set("version", formVersionAt(t, res.body, "/team/practice"))
+		second.post("/team/practice", typed).mustRedirect(t, "/team")
+		if name, zone := setting(store.SettingPracticeName), setting(store.SettingPracticeTimeZone); name != "Quayside Fuelling Clinic" || zone != "Europe/Lisbon" {
+			t.Fatalf("the deliberate save was not kept: %q, %q", name, zone)
+		}
+		typed.Del("version")
+		if res := second.post("/team/practice", typed); res.status != http.StatusConflict {
+			t.Fatalf("practice details without a version: %d, want 409", res.status)
 		}
 	})
 }

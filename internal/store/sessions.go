@@ -52,7 +52,7 @@ func (s *Store) SessionUser(ctx context.Context, userID, sessionID int64) (u Use
 		FROM users u
 		JOIN staff_sessions ss ON ss.user_id = u.id
 		WHERE u.id = $1 AND ss.id = $2 AND ss.expires_at > now()`, userID, sessionID, SettingPracticeName, DefaultPracticeName).
-		Scan(&u.ID, &u.Email, &u.Name, &u.PasswordHash, &u.Role, &u.Disabled, &u.CreatedAt, &practiceName)
+		Scan(&u.ID, &u.Email, &u.Name, &u.PasswordHash, &u.Role, &u.Disabled, &u.CreatedAt, &u.Version, &practiceName)
 	return u, practiceName, notFound(err)
 }
 

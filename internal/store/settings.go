@@ -39,3 +39,38 @@ func (s *Store) SetSetting(ctx context.Context, actor Actor, key, value string) 
 		return AuditTx(ctx, tx, actor, "update", "setting", 0, map[string]any{"key": key, "value": value})
 	})
 }
+
+// SettingValue is one setting to save.
+type SettingValue struct{ Key, Value string }
+
+// SetSettingsAt saves several settings in one transaction, each only if its
+// row is still at the version in want (0: never saved); otherwise nothing is
+// saved and ErrStale returned. Rows that exist are locked while they are
+// checked, so two saves from the same versions of them cannot both pass.
+func (s *Store) SetSettingsAt(ctx context.Context, actor Actor, want []int, values []SettingValue) error {
+	if len(want) != len(values) {
+		return errors.New("store: one version per setting")
+	}
+	return s.inTx(ctx, func(tx pgx.Tx) error {
+		for i, sv := range values {
+			var have int
+			err := tx.QueryRow(ctx, `SELECT version FROM settings WHERE key = $1 FOR UPDATE`, sv.Key).Scan(&have)
+			if err != nil && !errors.Is(err, pgx.ErrNoRows) {
+				return err
+			}
+			if have != want[i] {
+				return ErrStale
+			}
+		}
+		for _, sv := range values {
+			if _, err := tx.Exec(ctx, `INSERT INTO settings (key, value) VALUES ($1, $2)
+				ON CONFLICT (key) DO UPDATE SET value = excluded.value`, sv.Key, sv.Value); err != nil {
+				return err
+			}
+			if err := AuditTx(ctx, tx, actor, "update", "setting", 0, map[string]any{"key": sv.Key, "value": sv.Value}); err != nil {
+				return err
+			}
+		}
+		return nil
+	})
+}

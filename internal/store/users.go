@@ -24,6 +24,9 @@ type User struct {
 	Role         string
 	Disabled     bool
 	CreatedAt    time.Time
+	// Version rises on every change to the account (role, disabled,
+	// password); the Team page's forms carry it (see ExpectVersion).
+	Version int
 }
 
 // IsAdmin reports whether the user may manage staff.
@@ -36,11 +39,11 @@ var ErrEmailTaken = errors.New("store: email already in use")
 // ErrUsersExist is returned by CreateFirstUser once any user exists.
 var ErrUsersExist = errors.New("store: a user already exists")
 
-const userCols = `id, email, name, password_hash, role, disabled, created_at`
+const userCols = `id, email, name, password_hash, role, disabled, created_at, version`
 
 func scanUser(row pgx.Row) (User, error) {
 	var u User
-	err := row.Scan(&u.ID, &u.Email, &u.Name, &u.PasswordHash, &u.Role, &u.Disabled, &u.CreatedAt)
+	err := row.Scan(&u.ID, &u.Email, &u.Name, &u.PasswordHash, &u.Role, &u.Disabled, &u.CreatedAt, &u.Version)
 	return u, notFound(err)
 }
 
