@@ -1,9 +1,12 @@
 package server
 
 import (
+	"html"
 	"net/http"
 	"net/url"
+	"regexp"
 	"strconv"
+	"strings"
 	"testing"
 
 	"larder/internal/store"
@@ -71,5 +74,40 @@ func TestReadsAreRecordedAndListed(t *testing.T) {
 	admin.get("/team/reads?user="+url.QueryEscape("x")).mustContain(t, "not a number")
 	if res := admin.get("/team/reads?user=" + itoa(u.ID)); res.status != http.StatusOK {
 		t.Fatalf("reads by user: %d", res.status)
+	}
+}
+
+// An export carries a copy of a client's health data out of the practice:
+// each one (a table's CSV or the whole record's zip) is listed on the
+// admins' reads page with who took it, of which client, which file and
+// when. Before, exports were recorded but not listed.
+func TestExportsListedAmongReads(t *testing.T) {
+	a := newApp(t)
+	b, u := a.signedIn(store.RoleDietitian)
+	c := a.newClient(unique("Exported Client"))
+	base := "/clients/" + itoa(c.ID) + "/export/"
+	for _, file := range []string{"body-mass.csv", "record.zip"} {
+		if res := b.get(base + file); res.status != http.StatusOK {
+			t.Fatalf("export %s: %d\n%s", file, res.status, res.body)
+		}
+	}
+	admin, _ := a.signedIn(store.RoleAdmin)
+	for _, path := range []string{"/team/reads?client=" + itoa(c.ID), "/team/reads?user=" + itoa(u.ID), "/team/reads"} {
+		res := admin.get(path)
+		if res.status != http.StatusOK {
+			t.Fatalf("%s: %d", path, res.status)
+		}
+		for _, file := range []string{"body-mass.csv", "record.zip"} {
+			row := regexp.MustCompile(`<tr><td>[^<]+</td><td><a href="[^"]*">` + regexp.QuoteMeta(html.EscapeString(u.Name)) +
+				`</a></td><td><a href="[^"]*">` + regexp.QuoteMeta(html.EscapeString(c.Name)) + `</a></td><td>export of the records \(` + regexp.QuoteMeta(file) + `\)</td></tr>`)
+			if !row.MatchString(res.body) {
+				t.Errorf("%s: no row for %s's export of %s (%s)\n%s", path, u.Name, c.Name, file, res.body)
+			}
+		}
+	}
+	// Another client's list leaves them out.
+	other := a.newClient(unique("Other Client"))
+	if res := admin.get("/team/reads?client=" + itoa(other.ID)); strings.Contains(res.body, "export of the records (") {
+		t.Errorf("another client's list shows the exports:\n%s", res.body)
 	}
 }

@@ -70,6 +70,7 @@ type ReadEntry struct {
 	PlanID     *int64
 	Version    *int
 	Path       string
+	File       string // the file of an export (a table's CSV, or the whole record's zip)
 }
 
 // ReadFilter narrows the list of reads; zero fields do not filter.
@@ -80,18 +81,22 @@ type ReadFilter struct {
 	Limit    int
 }
 
-// ListReads lists recorded reads, newest first.
+// ListReads lists recorded reads, newest first: the pages opened (action
+// "view") and the exports taken (action "export", recorded by the export
+// itself with the file), which carry a copy of the health data out.
 func (s *Store) ListReads(ctx context.Context, f ReadFilter) ([]ReadEntry, error) {
 	if f.Limit <= 0 || f.Limit > 500 {
 		f.Limit = 100
 	}
-	rows, err := s.Pool.Query(ctx, `SELECT a.id, a.at, a.user_id, coalesce(u.name, ''), a.entity,
+	rows, err := s.Pool.Query(ctx, `SELECT a.id, a.at, a.user_id, coalesce(u.name, ''),
+			CASE WHEN a.action = 'export' THEN '`+ReadExport+`' ELSE a.entity END,
 			coalesce((a.detail->>'client_id')::bigint, 0), coalesce(c.name, ''),
-			(a.detail->>'plan_id')::bigint, (a.detail->>'version')::int, coalesce(a.detail->>'path', '')
+			(a.detail->>'plan_id')::bigint, (a.detail->>'version')::int, coalesce(a.detail->>'path', ''),
+			CASE WHEN a.action = 'export' THEN coalesce(a.detail->>'file', '') ELSE '' END
 		FROM audit_log a
 		LEFT JOIN users u ON u.id = a.user_id
 		LEFT JOIN clients c ON c.id = (a.detail->>'client_id')::bigint
-		WHERE a.action = 'view'
+		WHERE (a.action = 'view' OR (a.action = 'export' AND a.entity = 'client'))
 		  AND ($1 = 0 OR (a.detail->>'client_id')::bigint = $1)
 		  AND ($2 = 0 OR a.user_id = $2)
 		  AND ($3 = 0 OR a.id < $3)
@@ -101,7 +106,7 @@ func (s *Store) ListReads(ctx context.Context, f ReadFilter) ([]ReadEntry, error
 	}
 	return pgx.CollectRows(rows, func(r pgx.CollectableRow) (ReadEntry, error) {
 		var e ReadEntry
-		err := r.Scan(&e.ID, &e.At, &e.UserID, &e.UserName, &e.Kind, &e.ClientID, &e.ClientName, &e.PlanID, &e.Version, &e.Path)
+		err := r.Scan(&e.ID, &e.At, &e.UserID, &e.UserName, &e.Kind, &e.ClientID, &e.ClientName, &e.PlanID, &e.Version, &e.Path, &e.File)
 		return e, err
 	})
 }
