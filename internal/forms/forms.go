@@ -13,6 +13,15 @@
 // Supported field types: string (trimmed), bool (checkbox), int, *int,
 // float64, *float64 (empty gives nil; a comma is read as a decimal point),
 // time.Time and *time.Time (a date, YYYY-MM-DD).
+//
+// The decoding is written here rather than left to go-playground/form (the
+// validator's sibling): each field type is read Larder's own way (text
+// trimmed, a decimal comma, no exponent, a date as YYYY-MM-DD, empty as nil,
+// a 32-bit range), so the library would need a custom function per type,
+// and the loop over the fields would stay for what it cannot do (text the
+// database cannot hold refused beside its field, zone names corrected, a
+// message per field naming its limits). That is no less code than setField,
+// plus a dependency.
 package forms
 
 import (
