@@ -338,9 +338,8 @@ func (s *Server) saveFeedFood(w http.ResponseWriter, r *http.Request) {
 	if !ok || !s.ParseForm(w, r) {
 		return
 	}
-	revision, err := strconv.Atoi(r.PostForm.Get("revision"))
-	if err != nil {
-		http.Error(w, "The form is missing its revision; reload the page.", http.StatusBadRequest)
+	revision, ok := formRevision(w, r)
+	if !ok {
 		return
 	}
 	var lines []menu.ChoiceLine

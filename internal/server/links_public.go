@@ -99,6 +99,21 @@ type linkPlan struct {
 
 // linkPlans loads the link's published plans (decoded versions come from
 // the store's cache of frozen versions) with their zones and spans.
+// openLinkPlans opens the link of the request and loads its published plans;
+// on failure it has answered and returns false.
+func (s *Server) openLinkPlans(w http.ResponseWriter, r *http.Request) (store.LinkOpen, []linkPlan, bool) {
+	o, ok := s.openLink(w, r)
+	if !ok {
+		return o, nil, false
+	}
+	plans, err := s.linkPlans(r, o)
+	if err != nil {
+		s.linkError(w, r, err)
+		return o, nil, false
+	}
+	return o, plans, true
+}
+
 func (s *Server) linkPlans(r *http.Request, o store.LinkOpen) ([]linkPlan, error) {
 	pubs, err := s.Store.LoadPublished(r.Context(), o.Plans)
 	if err != nil {
@@ -179,13 +194,8 @@ func publishedAt(p linkPlan) time.Time {
 const nextDaysShown = 4
 
 func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
-	o, ok := s.openLink(w, r)
+	o, plans, ok := s.openLinkPlans(w, r)
 	if !ok {
-		return
-	}
-	plans, err := s.linkPlans(r, o)
-	if err != nil {
-		s.linkError(w, r, err)
 		return
 	}
 	now := s.Now()
@@ -312,13 +322,8 @@ func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
 const feedLinkWindow = 7 * 24 * time.Hour
 
 func (s *Server) clientCalendar(w http.ResponseWriter, r *http.Request) {
-	o, ok := s.openLink(w, r)
+	o, plans, ok := s.openLinkPlans(w, r)
 	if !ok {
-		return
-	}
-	plans, err := s.linkPlans(r, o)
-	if err != nil {
-		s.linkError(w, r, err)
 		return
 	}
 	now := s.Now()

@@ -24,13 +24,8 @@ func (s *Server) clientSheet(w http.ResponseWriter, r *http.Request) {
 		http.Error(w, "The sheet prints on A4 or Letter paper: use ?paper=a4 or ?paper=letter.", http.StatusBadRequest)
 		return
 	}
-	o, ok := s.openLink(w, r)
+	o, plans, ok := s.openLinkPlans(w, r)
 	if !ok {
-		return
-	}
-	plans, err := s.linkPlans(r, o)
-	if err != nil {
-		s.linkError(w, r, err)
 		return
 	}
 	now := s.Now()

@@ -303,9 +303,8 @@ func (s *Server) discardDraft(w http.ResponseWriter, r *http.Request) {
 	if !ok || !s.ParseForm(w, r) {
 		return
 	}
-	revision, err := strconv.Atoi(r.PostForm.Get("revision"))
-	if err != nil {
-		http.Error(w, "The form is missing its revision; reload the page.", http.StatusBadRequest)
+	revision, ok := formRevision(w, r)
+	if !ok {
 		return
 	}
 	gone, err := s.Store.DiscardDraft(r.Context(), Actor(r), v.ID, revision)
@@ -329,4 +328,15 @@ func (s *Server) discardDraft(w http.ResponseWriter, r *http.Request) {
 	}
 	s.Flash(r, "Draft version "+strconv.Itoa(v.Version)+" discarded. Earlier versions are unchanged.")
 	Redirect(w, r, web.Path("clients", c.ID, "plans", p.ID))
+}
+
+// formRevision reads the draft revision a posted plan form was made from; a
+// form without one gets a 400 and false.
+func formRevision(w http.ResponseWriter, r *http.Request) (int, bool) {
+	revision, err := strconv.Atoi(r.PostForm.Get("revision"))
+	if err != nil {
+		http.Error(w, "The form is missing its revision; reload the page.", http.StatusBadRequest)
+		return 0, false
+	}
+	return revision, true
 }

@@ -234,9 +234,8 @@ func (s *Server) editPlanVersion(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	action := r.PostForm.Get("action")
-	revision, err := strconv.Atoi(r.PostForm.Get("revision"))
-	if err != nil {
-		http.Error(w, "The form is missing its revision; reload the page.", http.StatusBadRequest)
+	revision, ok := formRevision(w, r)
+	if !ok {
 		return
 	}
 	values := overrideInputs(r.PostForm)
