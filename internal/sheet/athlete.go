@@ -73,6 +73,7 @@ func (d *doc) athleteBody() {
 	d.sharedNote()
 	d.noteBox("From your dietitian", strings.TrimSpace(s.PlanNote))
 	d.athleteEvent()
+	d.raceParts()
 	d.athleteRepletion()
 	d.athleteDays()
 }
@@ -137,7 +138,9 @@ func (d *doc) athleteEvent() {
 	if s.EventName != "" && s.EventStart != nil {
 		rows = append(rows, pair{"Your event", s.EventName + ", start " + s.EventStart.In(d.loc).Format("Mon 2 Jan 15:04")})
 	}
-	if m := p.PreEventMeal; m != nil {
+	// A stage race's meals and in-stage figures are in its stages table.
+	stages := len(p.Stages) > 0
+	if m := p.PreEventMeal; m != nil && !stages {
 		v := "At " + m.At.In(d.loc).Format("Mon 2 Jan 15:04") + ", about " + plainHours(m.HoursBefore*60) +
 			" before the start: " + num(m.ChoG, 0) + " g carbohydrate."
 		if sg := d.suggestion("pre_event", m.At, 0); sg != "" {
@@ -145,9 +148,13 @@ func (d *doc) athleteEvent() {
 		}
 		rows = append(rows, pair{"Meal before the start", v})
 	}
-	if e := p.DuringEvent; e != nil {
+	if e := p.DuringEvent; e != nil && !stages {
 		v := num(e.ChoGPerH, 0) + " g carbohydrate each hour, " + num(e.TotalChoG, 0) + " g in all over " + plainHours(e.DurationMin) +
 			". Use only foods and drinks you have practised with in training."
+		if len(e.Segments) > 0 {
+			v = num(e.TotalChoG, 0) + " g carbohydrate in all, in the legs where you can eat (see the legs below)." +
+				" Use only foods and drinks you have practised with in training."
+		}
 		if e.ChoGPerH == 0 {
 			v = "You do not need to eat during an event of " + plainHours(e.DurationMin) + "."
 		}

@@ -198,3 +198,56 @@ func TestStaffFormShortCitations(t *testing.T) {
 		}
 	}
 }
+
+// Events as they are raced reach the athlete's form too: each leg with its
+// carbohydrate (none in the swim, where one cannot eat: common practice),
+// each stage with its in-stage grams per hour, and a race over a day by
+// blocks of hours; in plain words, without the dietitian's figures.
+func TestAthleteFormRaceParts(t *testing.T) {
+	for _, name := range []string{"ironman-race.json", "stage-race-4-day.json", "ultra-48h-race.json"} {
+		t.Run(name, func(t *testing.T) {
+			s, text, pages := athleteSheet(t, name, false)
+			if pages < 1 || pages > 4 {
+				t.Errorf("%d pages, want 1–4", pages)
+			}
+			flat := strings.Join(strings.Fields(text), " ")
+			for _, w := range append(staffOnly, "kcal", "Stores run low", "speedy") {
+				if strings.Contains(text, w) {
+					t.Errorf("the athlete's form says %q:\n%s", w, text)
+				}
+			}
+			p := s.Plan
+			var want []string
+			if de := p.DuringEvent; de != nil && len(p.Stages) == 0 {
+				if len(de.Segments) > 0 {
+					want = append(want, "Legs of the race")
+					for _, seg := range de.Segments {
+						want = append(want, legGrams(seg))
+					}
+				}
+				if len(de.Blocks) > 0 {
+					want = append(want, "In-event feeding by block of hours")
+					for _, b := range de.Blocks {
+						want = append(want, b.From.In(mustZone(t, s)).Format("Mon 15:04"))
+					}
+				}
+			}
+			if len(p.Stages) > 0 {
+				want = append(want, "Stages")
+				for _, st := range p.Stages {
+					if de := st.DuringEvent; de != nil && de.ChoGPerH > 0 {
+						want = append(want, num(de.ChoGPerH, 0)+" g/h ("+num(de.TotalChoG, 0)+" g)")
+					}
+				}
+			}
+			if len(want) < 2 {
+				t.Fatalf("%s has no legs, stages or blocks to print", name)
+			}
+			for _, w := range want {
+				if !strings.Contains(flat, w) {
+					t.Errorf("the athlete's form lacks %q:\n%s", w, text)
+				}
+			}
+		})
+	}
+}

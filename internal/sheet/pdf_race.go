@@ -35,6 +35,10 @@ func (d *doc) legsTable(segs []fuel.SegmentPlan) {
 		{"Leg", "", 9, "L"}, {"Activity", "", 24, "L"}, {"Distance", "", 18, "R"}, {"From – to (race time)", "", 38, "L"},
 		{"Energy", "", 20, "R"}, {"Carbohydrate in the leg", "", 0, "L"}, {"Stores run low", "", 34, "L"},
 	}
+	if d.athlete() {
+		// The athlete's form: when and how much to eat, no energy or store figures.
+		cols = []column{cols[0], cols[1], cols[2], cols[3], cols[5]}
+	}
 	var rows [][]string
 	for i, s := range segs {
 		dist := "–"
@@ -45,8 +49,12 @@ func (d *doc) legsTable(segs []fuel.SegmentPlan) {
 		if s.RunsOutAtMin != nil {
 			runs = runsOut(s.RunsOutAtKm, s.RunsOutAtMin) + " into the leg"
 		}
-		rows = append(rows, []string{strconv.Itoa(i + 1), s.Modality, dist,
-			clock(s.StartMin) + " – " + clock(s.StartMin+s.DurationMin),
+		span := clock(s.StartMin) + " – " + clock(s.StartMin+s.DurationMin)
+		if d.athlete() {
+			rows = append(rows, []string{strconv.Itoa(i + 1), s.Modality, dist, span, legGrams(s)})
+			continue
+		}
+		rows = append(rows, []string{strconv.Itoa(i + 1), s.Modality, dist, span,
 			num(s.EnergyKcal, 0) + " kcal", legGrams(s), runs})
 	}
 	d.heading("Legs of the race", 8+2*4)
@@ -122,7 +130,10 @@ func (d *doc) stagesTable(stages []fuel.StagePlan) {
 	}
 	d.heading("Stages", 8+2*4)
 	msg := "Each stage: the meal before it, carbohydrate during it and the refuelling after its finish; the times are in the feeds below."
-	if overrides {
+	switch {
+	case overrides && d.athlete():
+		msg += " * set by your dietitian for you."
+	case overrides:
 		msg += " * set by the dietitian (override)."
 	}
 	d.note(msg)
@@ -144,6 +155,9 @@ func (d *doc) stageRefuel(st fuel.StagePlan, more bool) string {
 		total += f.ChoG
 	}
 	switch {
+	case r.Speedy && d.athlete():
+		return fmt.Sprintf("refuel quickly from %s: %d feeds, %s g carbohydrate in all (next stage in %s h)",
+			first, len(r.Feeds), num(total, 0), num(r.GapH, 1))
 	case r.Speedy:
 		return fmt.Sprintf("speedy refuelling from %s: %s g/kg/h, %d feeds, %s g in all (next stage in %s h)",
 			first, strconv.FormatFloat(r.ChoGPerKgPerH, 'f', 1, 64), len(r.Feeds), num(total, 0), num(r.GapH, 1))
