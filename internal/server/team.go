@@ -248,8 +248,13 @@ func (s *Server) teamPractice(w http.ResponseWriter, r *http.Request) {
 		s.renderTeam(w, r, http.StatusUnprocessableEntity, forms.Form{}, f, "")
 		return
 	}
+	unit := in.MassUnit
+	if unit == "" { // a form without the unit keeps the practice's
+		unit = string(s.PracticeMassUnit(r))
+	}
 	err := s.Store.SetSettingsAt(r.Context(), Actor(r), practiceFormVersions(r), []store.SettingValue{
-		{Key: store.SettingPracticeName, Value: in.PracticeName}, {Key: store.SettingPracticeTimeZone, Value: in.TimeZone}})
+		{Key: store.SettingPracticeName, Value: in.PracticeName}, {Key: store.SettingPracticeTimeZone, Value: in.TimeZone},
+		{Key: store.SettingMassUnit, Value: unit}})
 	if errors.Is(err, store.ErrStale) {
 		f.Errors.Add("version", staleMessage)
 		if err := s.setPracticeVersion(r, f); err != nil {
@@ -263,19 +268,13 @@ func (s *Server) teamPractice(w http.ResponseWriter, r *http.Request) {
 		s.ServerError(w, r, err)
 		return
 	}
-	if in.MassUnit != "" && in.MassUnit != string(s.PracticeMassUnit(r)) {
-		if err := s.Store.SetSetting(r.Context(), Actor(r), store.SettingMassUnit, in.MassUnit); err != nil {
-			s.ServerError(w, r, err)
-			return
-		}
-	}
 	s.Flash(r, "Practice details saved.")
 	Redirect(w, r, "/team")
 }
 
-// The practice form saves two settings at once, so its "version" holds the
-// version of each, name first: "3.1".
-var practiceKeys = []string{store.SettingPracticeName, store.SettingPracticeTimeZone}
+// The practice form saves three settings at once, in one transaction, so its
+// "version" holds the version of each in this order: "3.1.0".
+var practiceKeys = []string{store.SettingPracticeName, store.SettingPracticeTimeZone, store.SettingMassUnit}
 
 // setPracticeVersion puts the practice settings' current versions into f.
 func (s *Server) setPracticeVersion(r *http.Request, f forms.Form) error {

@@ -212,5 +212,25 @@ func TestStaleTeamAndPracticeEditsRefused(t *testing.T) {
 		if res := second.post("/team/practice", typed); res.status != http.StatusConflict {
 			t.Fatalf("practice details without a version: %d, want 409", res.status)
 		}
+
+		// The body-mass unit is saved with the name and zone: a form opened
+		// before another admin chose lb cannot put kg back unseen.
+		wasUnit := setting(store.SettingMassUnit)
+		t.Cleanup(func() {
+			_, _ = a.st.Pool.Exec(context.Background(), `UPDATE settings SET value = $1 WHERE key = 'mass_unit'`, wasUnit)
+		})
+		old = formVersionAt(t, second.get("/team").body, "/team/practice")
+		// Only the unit changes meanwhile (as an older page's unit-only save did).
+		if err := a.st.SetSetting(ctx, store.System, store.SettingMassUnit, "lb"); err != nil {
+			t.Fatal(err)
+		}
+		unitTyped := url.Values{"practice_name": {"Quayside Fuelling Clinic"}, "practice_time_zone": {"Europe/Lisbon"},
+			"mass_unit": {"kg"}, "version": {old}}
+		if res := second.post("/team/practice", unitTyped); res.status != http.StatusConflict {
+			t.Fatalf("stale practice unit: %d, want 409", res.status)
+		}
+		if u := setting(store.SettingMassUnit); u != "lb" {
+			t.Fatalf("a stale form changed the unit to %q", u)
+		}
 	})
 }
