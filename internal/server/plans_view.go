@@ -15,6 +15,7 @@ import (
 	"larder/internal/chart"
 	"larder/internal/fuel"
 	"larder/internal/menu"
+	"larder/internal/sheet"
 	"larder/internal/sources"
 	"larder/internal/store"
 	"larder/web"
@@ -97,6 +98,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		if _, seen := bySubject[f.Subject]; !seen {
 			order = append(order, f.Subject)
 		}
+		f.Message = sheet.FindingMessage(f, plan, c.Unit)
 		bySubject[f.Subject] = append(bySubject[f.Subject], findingView(f))
 	}
 	placed := map[string]bool{}

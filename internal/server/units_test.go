@@ -2,6 +2,7 @@ package server
 
 import (
 	"context"
+	"html"
 	"net/http"
 	"net/url"
 	"regexp"
@@ -91,6 +92,10 @@ func TestPoundsEverywhere(t *testing.T) {
 	if !strings.HasSuffix(gain, " lb") {
 		t.Fatalf("expected gain %q is not in lb", gain)
 	}
+	// The engine's finding on the gain reads in lb too.
+	if strings.Contains(plan.body, " kg above the usual diet") || !strings.Contains(plan.body, html.EscapeString(gain)+" above the usual diet") {
+		t.Error("plan page's expected-gain finding is not in lb")
+	}
 
 	// Saving the draft with the mass as shown keeps it; a new lb figure is converted.
 	save := func(lb string) store.PlanVersion {
@@ -125,6 +130,9 @@ func TestPoundsEverywhere(t *testing.T) {
 	pdf.mustPDF(t)
 	if text, ok := sheettest.Text(t, pdf.body); ok {
 		text = fold(text)
+		if strings.Contains(text, " kg above the usual diet") {
+			t.Errorf("sheet's expected-gain finding is in kg:\n%.3000s", text)
+		}
 		for _, want := range []string{"150.4 lb, measured", fold(gain) + " above the usual diet", "g/kg"} {
 			if !strings.Contains(text, want) {
 				t.Errorf("sheet lacks %q:\n%.3000s", want, text)
