@@ -459,4 +459,18 @@ func TestBrowserAxeStaffPhoneWidth(t *testing.T) {
 	}
 	axeCheck(t, ctx, src, "plan draft at 390 px")
 	fits("plan draft", "main h1", "#plan-days tr.day td:nth-child(4) input", "#plan-edit button[value=save]", "table.feeds td:nth-child(3)")
+
+	// The other pages a dietitian works in between sessions: each form fits
+	// the phone's width with its first field and its button on screen.
+	for _, pg := range []struct{ name, path, field string }{
+		{"overview", "/", "main h1"},
+		{"new plan form", "/clients/" + itoa64(res.IDs.Clients["marathoner"]) + "/plans/new", "main button[type=submit]"},
+		{"new body mass form", "/clients/" + itoa64(res.IDs.Clients["marathoner"]) + "/body-mass/new", "main button[type=submit]"},
+		{"new event form", "/clients/" + itoa64(res.IDs.Clients["marathoner"]) + "/events/new", "main button[type=submit]"},
+		{"foods", "/foods", "main h1"},
+		{"sources", "/sources", "main h1"},
+	} {
+		axeVisit(t, ctx, src, pg.name+" at 390 px", a.srv.URL+pg.path)
+		fits(pg.name, "main h1", pg.field)
+	}
 }
