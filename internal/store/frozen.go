@@ -76,12 +76,9 @@ var versionListCols = strings.Replace(versionCols, "v.request, v.result,",
 // scanListedVersion scans a row of versionListCols; the status, names and
 // times are the row's own (they may move), the content the cache's.
 func (s *Store) scanListedVersion(ctx context.Context, row pgx.Row) (PlanVersion, error) {
-	var v PlanVersion
-	var req, res []byte
-	err := row.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
-		&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt, &v.Notes)
+	v, req, res, err := scanVersionRow(row)
 	if err != nil {
-		return v, notFound(err)
+		return v, err
 	}
 	if v.Status == PlanDraft {
 		return v, decodeContent(&v, req, res)

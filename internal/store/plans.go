@@ -100,20 +100,20 @@ const versionCols = `v.id, v.plan_id, v.version, v.status, v.request, v.result, 
 const versionFrom = ` FROM plan_versions v LEFT JOIN users cu ON cu.id = v.created_by LEFT JOIN users uu ON uu.id = v.updated_by `
 
 func scanVersion(row pgx.Row) (PlanVersion, error) {
-	var v PlanVersion
-	var req, res []byte
-	err := row.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
-		&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt, &v.Notes)
+	v, req, res, err := scanVersionRow(row)
 	if err != nil {
-		return v, notFound(err)
+		return v, err
 	}
-	if err := json.Unmarshal(req, &v.Request); err != nil {
-		return v, fmt.Errorf("plan version %d request: %w", v.ID, err)
-	}
-	if err := json.Unmarshal(res, &v.Result); err != nil {
-		return v, fmt.Errorf("plan version %d result: %w", v.ID, err)
-	}
-	return v, nil
+	return v, decodeContent(&v, req, res)
+}
+
+// scanVersionRow scans a row of versionCols (or versionListCols), leaving
+// the request and result as the JSON read, for the caller to decode or to
+// take from the cache.
+func scanVersionRow(row pgx.Row) (v PlanVersion, req, res []byte, err error) {
+	err = row.Scan(&v.ID, &v.PlanID, &v.Version, &v.Status, &req, &res, &v.BodyMassKg, &v.BodyMassOn,
+		&v.Revision, &v.CreatedByName, &v.CreatedAt, &v.UpdatedByName, &v.UpdatedAt, &v.PublishedAt, &v.Notes)
+	return v, req, res, notFound(err)
 }
 
 func actorID(a Actor) *int64 {
