@@ -50,12 +50,8 @@ func DatePtr(t *time.Time) string {
 func ISODate(t time.Time) string { return t.Format("2006-01-02") }
 
 // DateTimeZone formats an instant in a zone as "Sun 18 Apr 2027 08:30 (Europe/Berlin)".
-func DateTimeZone(t time.Time, zone string) string {
-	loc, err := time.LoadLocation(zone)
-	if err != nil {
-		loc = time.UTC
-	}
-	return t.In(loc).Format("Mon 2 Jan 2006 15:04") + " (" + zone + ")"
+func DateTimeZone(t time.Time, name string) string {
+	return t.In(zone(name)).Format("Mon 2 Jan 2006 15:04") + " (" + name + ")"
 }
 
 // Num formats a number with at most the given decimals, trailing zeros dropped.
@@ -78,12 +74,24 @@ func Itoa(n int) string { return strconv.Itoa(n) }
 func ID(n int64) string { return strconv.FormatInt(n, 10) }
 
 // Path joins URL path parts: Path("clients", 3, "body-mass") = "/clients/3/body-mass".
+// The common part types are appended without fmt: pages build dozens of
+// these per view (an edit link per table row).
 func Path(parts ...any) string {
-	s := ""
+	b := make([]byte, 0, 16*len(parts))
 	for _, p := range parts {
-		s += "/" + fmt.Sprint(p)
+		b = append(b, '/')
+		switch v := p.(type) {
+		case string:
+			b = append(b, v...)
+		case int64:
+			b = strconv.AppendInt(b, v, 10)
+		case int:
+			b = strconv.AppendInt(b, int64(v), 10)
+		default:
+			b = fmt.Append(b, v)
+		}
 	}
-	return s
+	return string(b)
 }
 
 func roundTo(x float64, decimals int) float64 {
@@ -181,12 +189,8 @@ var CommonZones = []string{
 }
 
 // DateIn formats an instant's date in a zone: "Sun 18 Apr 2027".
-func DateIn(t time.Time, zone string) string {
-	loc, err := time.LoadLocation(zone)
-	if err != nil {
-		loc = time.UTC
-	}
-	return Date(t.In(loc))
+func DateIn(t time.Time, name string) string {
+	return Date(t.In(zone(name)))
 }
 
 // MassPtr formats an optional body mass in unit u: "58.1 kg", or "—".

@@ -78,3 +78,51 @@ func TestZoneChoicesCapitalised(t *testing.T) {
 		t.Errorf("second zone reads %q", got[2].Label)
 	}
 }
+
+// Path joins strings and ids of either integer type as the routes spell
+// them, and other values as fmt prints them.
+func TestPath(t *testing.T) {
+	cases := []struct {
+		got, want string
+	}{
+		{Path("clients", int64(42), "body-mass", int64(7), "edit"), "/clients/42/body-mass/7/edit"},
+		{Path("clients", int64(3), "plans", int64(9), "versions", 2), "/clients/3/plans/9/versions/2"},
+		{Path("team", int64(-1)), "/team/-1"},
+		{Path("x", 1.5, true), "/x/1.5/true"},
+		{Path(), ""},
+	}
+	for _, c := range cases {
+		if c.got != c.want {
+			t.Errorf("Path = %q, want %q", c.got, c.want)
+		}
+	}
+}
+
+// An event's start shows in its own zone, loaded once and then kept: the
+// offsets are the IANA tz database's (Berlin is UTC+2 in summer time, UTC+1
+// in winter; Sydney UTC+10 in June). A zone the machine does not know shows
+// the UTC time under the recorded name, and is not kept.
+func TestDateTimeZone(t *testing.T) {
+	summer := time.Date(2027, 4, 18, 6, 30, 0, 0, time.UTC)
+	winter := time.Date(2027, 1, 10, 6, 30, 0, 0, time.UTC)
+	for range 2 { // the second round is served from the kept zones
+		if got, want := DateTimeZone(summer, "Europe/Berlin"), "Sun 18 Apr 2027 08:30 (Europe/Berlin)"; got != want {
+			t.Errorf("summer: %q, want %q", got, want)
+		}
+		if got, want := DateTimeZone(winter, "Europe/Berlin"), "Sun 10 Jan 2027 07:30 (Europe/Berlin)"; got != want {
+			t.Errorf("winter: %q, want %q", got, want)
+		}
+		if got, want := DateIn(time.Date(2027, 6, 5, 20, 0, 0, 0, time.UTC), "Australia/Sydney"), "Sun 6 Jun 2027"; got != want {
+			t.Errorf("Sydney: %q, want %q", got, want)
+		}
+		if got, want := DateTimeZone(summer, "Not/A_Zone"), "Sun 18 Apr 2027 06:30 (Not/A_Zone)"; got != want {
+			t.Errorf("unknown zone: %q, want %q", got, want)
+		}
+	}
+	if _, kept := zones.Load("Not/A_Zone"); kept {
+		t.Error("a zone that did not load was kept")
+	}
+	if _, kept := zones.Load("Europe/Berlin"); !kept {
+		t.Error("Europe/Berlin was not kept after loading")
+	}
+}
