@@ -58,6 +58,7 @@ type planner struct {
 
 	feedOvState  []string // per feed override: feedOvApplied, or why it was not
 	buf          []byte   // message buffer of find
+	marks        []int    // where find's message names body masses
 	startDensity float64  // working-muscle glycogen at the start line, mmol/kg
 	repWinH      float64  // speedy refuelling window, hours
 	occNotes     []occasionNote

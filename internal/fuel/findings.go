@@ -14,8 +14,8 @@ func (p *planner) finish() {
 	switch {
 	case p.body.FFMMethod == FFMNone && p.req.Athlete.HeightCm != nil:
 		p.find("fat-free-mass-unknown", LevelNote, "plan", SrcBoer,
-			"Height was given, but the Boer estimate of lean mass from it (%.1f kg) is not between 0 and the body mass of %g kg, so it cannot be used: fat-free mass is not known and energy availability is only screened on an estimate. Measure body fat for both.",
-			p.body.BoerKg, mass)
+			"Height was given, but the Boer estimate of lean mass from it (%.1M) is not between 0 and the body mass of %M, so it cannot be used: fat-free mass is not known and energy availability is only screened on an estimate. Measure body fat for both.",
+			MassFigure{Kg: p.body.BoerKg}, MassFigure{Kg: mass})
 	case p.body.FFMMethod == FFMNone:
 		p.find("fat-free-mass-unknown", LevelNote, "plan", SrcBoer,
 			"Neither body fat nor height was given, so fat-free mass is not known and energy availability is only screened on an estimate. Measure body fat for both.")
@@ -78,8 +78,8 @@ func (p *planner) finish() {
 	}
 	if p.plan.ExpectedMassGainKg != nil {
 		p.find("mass-gain", LevelNote, "plan", SrcOlsson,
-			"Expect body mass at the start to be about %g–%g kg above the usual diet's: about %.0f g more glycogen, stored with %g–%g g of water per gram. Expected, not a sign of fat gain.",
-			*p.plan.ExpectedMassGainKg, *p.plan.ExpectedMassGainKgMax, p.massGainG, gWater.Min, gWater.Max)
+			"Expect body mass at the start to be about %M above the usual diet's: about %.0f g more glycogen, stored with %g–%g g of water per gram. Expected, not a sign of fat gain.",
+			MassFigure{Kg: *p.plan.ExpectedMassGainKg, MaxKg: *p.plan.ExpectedMassGainKgMax}, p.massGainG, gWater.Min, gWater.Max)
 	}
 	p.finishEvents()
 	for _, c := range p.req.Cautions {
@@ -449,8 +449,8 @@ func (p *planner) checkBodyFat() {
 		word = "very high"
 	}
 	p.find("body-fat-extreme", LevelNote, "plan", SrcSedlock,
-		"Body fat of %g%% is %s (outside %.0f–%.0f%%): g/kg of total body mass misleads here. On fat-free mass (%.1f kg) the loading guide of %g g/kg lean mass is %.0f g a day; this plan's muscle and liver stores follow fat-free mass.",
-		*bf, word, lim.Min*100, lim.Max*100, p.body.FFMKg, gWomenFFM.Min, gWomenFFM.Min*p.body.FFMKg)
+		"Body fat of %g%% is %s (outside %.0f–%.0f%%): g/kg of total body mass misleads here. On fat-free mass (%.1M) the loading guide of %g g/kg lean mass is %.0f g a day; this plan's muscle and liver stores follow fat-free mass.",
+		*bf, word, lim.Min*100, lim.Max*100, MassFigure{Kg: p.body.FFMKg}, gWomenFFM.Min, gWomenFFM.Min*p.body.FFMKg)
 }
 
 // screenEnergyAvailability screens a day's energy availability when
@@ -476,7 +476,7 @@ func (p *planner) screenEnergyAvailability(d *Day, subj string) {
 		word = "low (under %g; adequate is about %g)"
 	}
 	p.find("energy-availability-estimated", lvl, subj, SrcIOC,
-		"Fat-free mass is unknown; estimated at %.1f kg (%.0f%% body fat assumed), energy availability is about %g kcal/kg FFM/day, "+word+
+		"Fat-free mass is unknown; estimated at %.1M (%.0f%% body fat assumed), energy availability is about %g kcal/kg FFM/day, "+word+
 			": %g kcal eaten, %g kcal of exercise. Measure body fat to compute it.",
-		ffm, refFat*100, ea, gEALow.Min, gEAAdequate.Min, d.EnergyKcal, *d.ExerciseEnergyKcal)
+		MassFigure{Kg: ffm}, refFat*100, ea, gEALow.Min, gEAAdequate.Min, d.EnergyKcal, *d.ExerciseEnergyKcal)
 }

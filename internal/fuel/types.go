@@ -296,6 +296,22 @@ type Finding struct {
 	// "feed:2027-04-16:2", "pre_event_meal", "during_event", "repletion",
 	// "glycogen", "plan".
 	Subject string `json:"subject"`
+	// Masses are the body masses, or changes of one, that Message names, in
+	// kg and in the order they appear; MassText is Message's text around
+	// them, one piece more than Masses. The engine works in kg only, so a
+	// view writes each figure in the unit the client is weighed in by
+	// joining the pieces itself. Message keeps the kg figures: the API's
+	// reading, and the one left for a version stored before these fields.
+	Masses   []MassFigure `json:"masses,omitempty"`
+	MassText []string     `json:"mass_text,omitempty"`
+}
+
+// MassFigure is a body mass, or a range of one (the expected gain from
+// loading), named by a finding. MaxKg is the top of a range, 0 for a single
+// figure.
+type MassFigure struct {
+	Kg    float64 `json:"kg"`
+	MaxKg float64 `json:"max_kg,omitempty"`
 }
 
 // Finding levels.

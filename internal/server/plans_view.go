@@ -98,7 +98,7 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		if _, seen := bySubject[f.Subject]; !seen {
 			order = append(order, f.Subject)
 		}
-		f.Message = sheet.FindingMessage(f, plan, c.Unit)
+		f.Message = sheet.FindingMessage(f, c.Unit)
 		bySubject[f.Subject] = append(bySubject[f.Subject], findingView(f))
 	}
 	placed := map[string]bool{}

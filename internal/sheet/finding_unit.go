@@ -1,23 +1,32 @@
 package sheet
 
 import (
-	"fmt"
 	"strings"
 
 	"larder/internal/fuel"
 	"larder/internal/mass"
 )
 
-// FindingMessage is a finding's message with the body-mass figures the
-// engine wrote in kg given in the client's unit. The engine works in kg
-// only; of its findings, the expected gain from loading is the one that
-// names a body mass, so an athlete weighed in pounds reads it in pounds on
-// the plan page and both sheets alike.
-func FindingMessage(fd fuel.Finding, p fuel.Plan, u mass.Unit) string {
-	if u == mass.KG || fd.Code != "mass-gain" || p.ExpectedMassGainKg == nil || p.ExpectedMassGainKgMax == nil {
+// FindingMessage is a finding's message with each body mass it names (the
+// engine records them in kg beside the text around them) written in the
+// client's unit: an athlete weighed in pounds reads the expected gain from
+// loading, or an estimated fat-free mass, in pounds on the plan page and
+// both sheets alike. A single figure is shown to 0.1 of the unit, a range as
+// mass.Difference gives it. A finding stored without its figures keeps its
+// kg message.
+func FindingMessage(fd fuel.Finding, u mass.Unit) string {
+	if len(fd.Masses) == 0 || len(fd.MassText) != len(fd.Masses)+1 {
 		return fd.Message
 	}
-	lo, hi := *p.ExpectedMassGainKg, *p.ExpectedMassGainKgMax
-	kg := fmt.Sprintf("%g–%g kg", lo, hi)
-	return strings.Replace(fd.Message, kg, mass.Difference(lo, hi, u), 1)
+	var b strings.Builder
+	for i, m := range fd.Masses {
+		b.WriteString(fd.MassText[i])
+		if m.MaxKg != 0 {
+			b.WriteString(mass.Difference(m.Kg, m.MaxKg, u))
+		} else {
+			b.WriteString(mass.Text(m.Kg, u))
+		}
+	}
+	b.WriteString(fd.MassText[len(fd.Masses)])
+	return b.String()
 }

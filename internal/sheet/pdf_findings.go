@@ -34,7 +34,7 @@ func (d *doc) findings() {
 	textW := d.w - 33
 	for _, fd := range shown {
 		d.font("", 8.6)
-		ml := d.lines(d.findingText(fd.Subject, FindingMessage(fd, p, d.s.unit())), textW)
+		ml := d.lines(d.findingText(fd.Subject, FindingMessage(fd, d.s.unit())), textW)
 		d.font("", 7.2)
 		sl := d.lines("Checked against: "+sources.Short(fd.Source), textW)
 		h := float64(len(ml))*3.8 + float64(len(sl))*3.2 + 1.4
