@@ -1,6 +1,7 @@
 package server
 
 import (
+	"context"
 	"os"
 	"path/filepath"
 	"strings"
@@ -66,5 +67,53 @@ func TestBrowserImportCSV(t *testing.T) {
 	}
 	if n := a.count(`SELECT count(*) FROM body_mass WHERE client_id = $1`, c.ID); n != 2 {
 		t.Errorf("rows saved: %d, want exactly 2", n)
+	}
+}
+
+// TestBrowserImportPreviewPounds reads the preview of a body-mass file for a
+// client weighed in pounds: the rows, and the refused one's range, in lb.
+func TestBrowserImportPreviewPounds(t *testing.T) {
+	ctx := browserCtx(t)
+	a := newApp(t)
+	u := a.user("dietitian", false)
+	c := a.newClient(unique("Browser Pounds"))
+	if _, err := a.st.Pool.Exec(context.Background(), `UPDATE clients SET mass_unit = 'lb' WHERE id = $1`, c.ID); err != nil {
+		t.Fatal(err)
+	}
+	file := filepath.Join(t.TempDir(), "body-mass.csv")
+	csv := "date,body mass,method\n2026-02-01,134.9,scale\n2026-02-08,61.2 kg,scale\n2026-02-15,12,scale\n"
+	if err := os.WriteFile(file, []byte(csv), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	err := chromedp.Do(ctx,
+		chromedp.Navigate(a.srv.URL+"/signin"),
+		chromedp.WaitVisible(chromedp.ID("f-email")),
+		chromedp.SendKeys(chromedp.ID("f-email"), u.Email),
+		chromedp.SendKeys(chromedp.ID("f-password"), testPassword),
+		chromedp.Submit(chromedp.ID("f-password")),
+		chromedp.WaitVisible(chromedp.CSS(`nav[aria-label="Main"]`)),
+		chromedp.Navigate(a.srv.URL+"/clients/"+itoa(c.ID)+"/import"),
+		chromedp.WaitVisible(chromedp.ID("f-csv")),
+		chromedp.SetValue(chromedp.ID("f-kind"), "body_mass"),
+		chromedp.SetUploadFiles(chromedp.ID("f-csv"), []string{file}),
+		chromedp.Click(chromedp.Search(`//button[contains(., "Preview the import")]`)),
+		chromedp.WaitVisible(chromedp.ID("preview-add")),
+	)
+	if err != nil {
+		t.Fatalf("upload: %v", err)
+	}
+	shot(t, ctx, "import-preview-lb")
+	// 61.2 kg = 134.9 lb (61.2 / 0.45359237 = 134.92).
+	add := text(t, ctx, "#preview-add tbody")
+	for _, want := range []string{"2026-02-01 · 134.9 lb · scale", "2026-02-08 · 134.9 lb (written as 61.2 kg) · scale"} {
+		if !strings.Contains(add, want) {
+			t.Errorf("rows to add = %q; want %q", add, want)
+		}
+	}
+	if strings.Contains(add, "61.19 kg") {
+		t.Errorf("rows to add in kg: %q", add)
+	}
+	if errs := text(t, ctx, "#preview-errors tbody"); !strings.Contains(errs, "44.1 to 661.3 lb") {
+		t.Errorf("error table = %q; want the range in lb", errs)
 	}
 }

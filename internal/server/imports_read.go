@@ -10,6 +10,7 @@ import (
 	"time"
 
 	"larder/internal/importer"
+	"larder/internal/mass"
 	"larder/internal/store"
 	"larder/web"
 )
@@ -24,6 +25,7 @@ type readUpload struct {
 	clients  map[int64]string
 	texts    map[int]string
 	clientOf map[int]string
+	unitOf   map[int]mass.Unit // line → the unit its client is weighed in
 }
 
 func (s *Server) readUpload(ctx context.Context, up store.Upload, c *store.Client, in url.Values) (*readUpload, error) {
@@ -38,14 +40,23 @@ func (s *Server) readUpload(ctx context.Context, up store.Upload, c *store.Clien
 			answers.Set(k, v[0])
 		}
 	}
-	if answers.Get("mass_unit") == "" && c != nil {
-		// Bare numbers are first read in the unit the client is weighed in.
-		answers.Set("mass_unit", string(c.Unit))
+	if answers.Get("mass_unit") == "" {
+		// Bare numbers are first read in the unit the client is weighed in,
+		// or for a practice's file in the practice's unit.
+		if c != nil {
+			answers.Set("mass_unit", string(c.Unit))
+		} else {
+			u, err := s.Store.Setting(ctx, store.SettingMassUnit, string(mass.Default))
+			if err != nil {
+				return nil, err
+			}
+			answers.Set("mass_unit", string(mass.Or(mass.Unit(u), mass.Default)))
+		}
 	}
 	if answers.Get("default_zone") == "" || !slices.Contains(store.Zones, answers.Get("default_zone")) {
 		answers.Set("default_zone", "endurance")
 	}
-	p := &readUpload{labels: map[int]string{}, texts: map[int]string{}, clientOf: map[int]string{}}
+	p := &readUpload{labels: map[int]string{}, texts: map[int]string{}, clientOf: map[int]string{}, unitOf: map[int]mass.Unit{}}
 	names := make([]string, len(up.Files))
 	for i, f := range up.Files {
 		names[i] = f.Name
@@ -110,7 +121,7 @@ func (s *Server) readUpload(ctx context.Context, up store.Upload, c *store.Clien
 			continue
 		}
 		p.mass = append(p.mass, m.ForStore(id))
-		p.texts[m.Line] = massText(m)
+		p.texts[m.Line] = massText(m, p.unitOf[m.Line])
 	}
 	for _, t := range sh.Sessions {
 		id, ok := ids[t.Line]
@@ -145,6 +156,7 @@ func (s *Server) clientIDs(ctx context.Context, p *readUpload, c *store.Client, 
 	if c != nil {
 		for _, r := range refs {
 			ids[r.line] = c.ID
+			p.unitOf[r.line] = c.Unit
 		}
 		return ids, nil
 	}
@@ -173,6 +185,7 @@ func (s *Server) clientIDs(ctx context.Context, p *readUpload, c *store.Client, 
 		case m.ID != 0:
 			ids[r.line] = m.ID
 			p.clientOf[r.line] = r.key.Name
+			p.unitOf[r.line] = m.Unit
 		case m.Count > 1:
 			p.view.Problems = append(p.view.Problems, web.PreviewProblem{Line: strconv.Itoa(r.line), Column: col,
 				Reason: fmt.Sprintf("%d clients are %s; import this row from the right client's page.", m.Count, who)})
@@ -293,10 +306,14 @@ func zoneOptions() []web.Option {
 	return out
 }
 
-func massText(m importer.MassRow) string {
-	s := m.On.Format(time.DateOnly) + " · " + strconv.FormatFloat(m.MassKg, 'f', -1, 64) + " kg"
-	if m.Unit == "lb" {
-		s += " (written in lb)"
+// massText is a body-mass row as the preview lists it: the mass in the unit
+// its client is weighed in, as finely as a form shows it (0.01 kg, 0.1 lb),
+// and what the file wrote when that was the other unit.
+func massText(m importer.MassRow, u mass.Unit) string {
+	u = mass.Or(u, mass.Default)
+	s := m.On.Format(time.DateOnly) + " · " + mass.Precise(m.MassKg, u)
+	if written := mass.Unit(m.Unit); written != u {
+		s += " (written as " + mass.Precise(m.MassKg, mass.Or(written, mass.Default)) + ")"
 	}
 	if m.BodyFatPct != nil {
 		s += " · body fat " + strconv.FormatFloat(*m.BodyFatPct, 'f', -1, 64) + " %"

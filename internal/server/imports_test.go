@@ -46,7 +46,7 @@ func TestImportBodyMassFlow(t *testing.T) {
 	}
 	q := url.Values{"date_order": {"dmy"}, "map_remark": {"ignore"}}
 	page = b.get(preview + "?" + q.Encode())
-	page.mustContain(t, "2026-03-01 · 69.99 kg (written in lb)", `id="confirm"`, "Import 2 rows")
+	page.mustContain(t, "2026-03-01 · 69.99 kg (written as 154.3 lb)", `id="confirm"`, "Import 2 rows")
 	if n := a.count(`SELECT count(*) FROM body_mass WHERE client_id = $1`, c.ID); n != 0 {
 		t.Fatalf("the preview saved %d rows", n)
 	}

@@ -9,6 +9,8 @@ import (
 
 	"github.com/jackc/pgx/v5"
 	"github.com/jackc/pgx/v5/pgtype"
+
+	"larder/internal/mass"
 )
 
 // Imports write many rows at once: the rows are copied (COPY) into a
@@ -305,6 +307,9 @@ type ClientKey struct {
 type ClientMatch struct {
 	ID    int64 // 0 when none or several match
 	Count int   // clients with that name (case and accents ignored) and date of birth
+	// Unit is the body-mass unit the one matching client is weighed in (their
+	// own choice, else the practice's), so a preview reads in it.
+	Unit mass.Unit
 }
 
 // MatchClients finds clients by name (ignoring case, surrounding spaces and
@@ -315,7 +320,8 @@ func (s *Store) MatchClients(ctx context.Context, keys []ClientKey) (map[ClientK
 	for i, k := range keys {
 		names[i], dobs[i] = strings.TrimSpace(k.Name), k.DOB
 	}
-	rows, err := s.Pool.Query(ctx, `SELECT k.i, count(c.id), min(c.id)
+	rows, err := s.Pool.Query(ctx, `SELECT k.i, count(c.id), min(c.id),
+			min(coalesce(c.mass_unit, (SELECT value FROM settings WHERE key = 'mass_unit'), 'kg'))
 		FROM unnest($1::text[], $2::date[]) WITH ORDINALITY AS k(name, dob, i)
 		LEFT JOIN clients c ON `+foldSQL("btrim(c.name)")+` = `+foldSQL("k.name")+` AND c.date_of_birth = k.dob
 		GROUP BY k.i`, names, dobs)
@@ -325,10 +331,14 @@ func (s *Store) MatchClients(ctx context.Context, keys []ClientKey) (map[ClientK
 	out := map[ClientKey]ClientMatch{}
 	var i, n int64
 	var id *int64
-	_, err = pgx.ForEachRow(rows, []any{&i, &n, &id}, func() error {
+	var unit *string
+	_, err = pgx.ForEachRow(rows, []any{&i, &n, &id, &unit}, func() error {
 		m := ClientMatch{Count: int(n)}
 		if n == 1 && id != nil {
 			m.ID = *id
+			if unit != nil {
+				m.Unit = mass.Or(mass.Unit(*unit), mass.Default)
+			}
 		}
 		out[keys[i-1]] = m
 		return nil
