@@ -145,9 +145,17 @@ func (s *Server) clientPage(w http.ResponseWriter, r *http.Request) {
 		plans    []store.PlanRow
 		links    []store.ClientLink
 	)
+	// The training log is read only for the window shown (with its count
+	// for the "show all" link) unless all of it is asked for.
+	allTraining := r.URL.Query().Get("training") == "all"
+	var total int
 	rd.Client(id, &c)
 	rd.BodyMass(id, &masses)
-	rd.Training(id, &training)
+	if allTraining {
+		rd.Training(id, &training)
+	} else {
+		rd.RecentTraining(id, today.AddDate(0, 0, -trainingDaysBack), today.AddDate(0, 0, trainingDaysAhead), &training, &total)
+	}
 	rd.Events(id, &events)
 	rd.AuditForClient(id, 12, &history)
 	rd.DietaryNeeds(id, &needs)
@@ -157,19 +165,11 @@ func (s *Server) clientPage(w http.ResponseWriter, r *http.Request) {
 		s.StoreError(w, r, err)
 		return
 	}
-	allTraining := r.URL.Query().Get("training") == "all"
-	shown := training
-	if !allTraining {
-		from, to := today.AddDate(0, 0, -trainingDaysBack), today.AddDate(0, 0, trainingDaysAhead)
-		shown = shown[:0:0]
-		for _, t := range training {
-			if !t.OnDate.Before(from) && !t.OnDate.After(to) {
-				shown = append(shown, t)
-			}
-		}
+	if allTraining {
+		total = len(training)
 	}
 	d := web.ClientPageData{
-		Client: c, Today: today, BodyMass: masses, Training: shown, TrainingTotal: len(training),
+		Client: c, Today: today, BodyMass: masses, Training: training, TrainingTotal: total,
 		AllTraining: allTraining, DaysBack: trainingDaysBack, DaysAhead: trainingDaysAhead, Events: events, History: history,
 	}
 	d.Needs = clientNeedsSection(c, needs)

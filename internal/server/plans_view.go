@@ -364,7 +364,8 @@ func (s *Server) planSuggestions(ctx context.Context, c store.Client, plan fuel.
 
 // clientPlansSection is the plans box of the client page: the client's
 // plans, and the plans that can be started from their events and training
-// (the client's whole log, newest first, as ListTraining gives it).
+// (newest first: the client page's window of the log, which reaches back
+// further than the past week this looks at).
 func (s *Server) clientPlansSection(c store.Client, plans []store.PlanRow, events []store.Event, training []store.TrainingSession) templ.Component {
 	v := web.ClientPlansView{ClientID: c.ID}
 	for _, p := range plans {

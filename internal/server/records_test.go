@@ -357,3 +357,40 @@ func TestClientEditFromStaleTab(t *testing.T) {
 		t.Fatalf("second save: %+v", got)
 	}
 }
+
+// The client page shows the training of three weeks back to two weeks
+// ahead (the days either side included), with the count of the whole log
+// and a link to all of it; ?training=all shows every session.
+func TestClientPageTrainingWindow(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	c := a.newClient(unique("Window Client"))
+	base := "/clients/" + itoa(c.ID)
+	// testNow is Mon 1 Mar 2027: the window is Mon 8 Feb to Mon 15 Mar.
+	for _, s := range []struct{ on, notes string }{
+		{"2027-02-07", "day before the window"},
+		{"2027-02-08", "first day of the window"},
+		{"2027-03-15", "last day of the window"},
+		{"2027-03-16", "day after the window"},
+		{"2027-02-27", "latest session with a start time"},
+	} {
+		start := ""
+		if s.on == "2027-02-27" {
+			start = "06:30"
+		}
+		b.post(base+"/training", url.Values{"on_date": {s.on}, "start_time": {start}, "modality": {"run"}, "duration_min": {"40"},
+			"intensity_kind": {"rpe"}, "rpe": {"5"}, "status": {"planned"}, "notes": {s.notes}}).mustRedirect(t, base)
+	}
+	page := b.get(base)
+	// The plans box offers a repletion plan after the past week's latest
+	// session with a start time, read from the same window.
+	page.mustContain(t, "first day of the window", "last day of the window", "The last 21 and next 14 days.",
+		`href="`+base+`?training=all#training">Show all 5 sessions</a>`, "Repletion after Sat 27 Feb 06:30")
+	for _, out := range []string{"day before the window", "day after the window"} {
+		if strings.Contains(page.body, out) {
+			t.Errorf("the client page shows the session on the %s", out)
+		}
+	}
+	b.get(base+"?training=all").mustContain(t, "day before the window", "first day of the window", "last day of the window",
+		"day after the window", "Show only the last 21 and next 14 days")
+}

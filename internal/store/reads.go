@@ -81,6 +81,18 @@ func (r *Reads) TrainingBetween(clientID int64, from, to time.Time, dst *[]Train
 	}, clientID, from.Format(time.DateOnly), to.Format(time.DateOnly))
 }
 
+// RecentTraining reads a client's sessions from one date to another (both
+// included), newest first as Training lists them, and how many sessions
+// the whole log holds: the client page shows a window of a log that grows
+// without bound, and offers the rest by its count.
+func (r *Reads) RecentTraining(clientID int64, from, to time.Time, dst *[]TrainingSession, total *int) {
+	r.rows(recentTrainingSQL, func(rows pgx.Rows) (err error) {
+		*dst, err = collectTraining(rows, nil)
+		return err
+	}, clientID, from.Format(time.DateOnly), to.Format(time.DateOnly))
+	r.row(countTrainingSQL, func(row pgx.Row) error { return row.Scan(total) }, clientID)
+}
+
 // Events reads a client's events (ListEvents).
 func (r *Reads) Events(clientID int64, dst *[]Event) {
 	r.rows(listEventsSQL, func(rows pgx.Rows) (err error) {

@@ -146,6 +146,10 @@ const (
 	trainingBetweenSQL = `SELECT ` + trainingCols + ` FROM training_sessions
 		WHERE client_id = $1 AND on_date BETWEEN $2::date AND $3::date
 		ORDER BY on_date, start_time NULLS FIRST, id`
+	recentTrainingSQL = `SELECT ` + trainingCols + ` FROM training_sessions
+		WHERE client_id = $1 AND on_date BETWEEN $2::date AND $3::date
+		ORDER BY on_date DESC, start_time DESC NULLS LAST, id DESC`
+	countTrainingSQL = `SELECT count(*) FROM training_sessions WHERE client_id = $1`
 )
 
 func collectTraining(rows pgx.Rows, err error) ([]TrainingSession, error) {
