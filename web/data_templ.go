@@ -41,7 +41,7 @@ func ClientDataPage(d ClientDataData) templ.Component {
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}
-		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 1, "<section id=\"export\"><h2>Export</h2><p>CSV files in UTF-8 with ISO dates (2026-03-01), one row per record, ready for a spreadsheet. Body mass and training files can be imported again as they are.</p><p><a class=\"button secondary\" href=\"")
+		templ_7745c5c3_Err = templruntime.WriteString(templ_7745c5c3_Buffer, 1, "<section id=\"export\"><h2>Export</h2><p>CSV files in UTF-8 with ISO dates (2026-03-01), one row per record, ready for a spreadsheet. Each column heading names its unit: body mass is in kg, with a column in lb too for a client weighed in pounds. Body mass and training files can be imported again as they are.</p><p><a class=\"button secondary\" href=\"")
 		if templ_7745c5c3_Err != nil {
 			return templ_7745c5c3_Err
 		}

@@ -124,8 +124,10 @@ var synonyms = map[string]string{
 	"mass": FieldMass, "body mass": FieldMass, "weight": FieldMass, "body weight": FieldMass, "bodyweight": FieldMass, "bm": FieldMass,
 	// Larder's own export: masses are in kg; the unit once typed is information only.
 	"entered unit": Ignore,
-	"source":       Ignore,
-	"unit":         FieldUnit, "units": FieldUnit, "mass unit": FieldUnit, "weight unit": FieldUnit,
+	// and for a client weighed in pounds the same mass in lb beside the kg.
+	"body mass (lb, from kg)": Ignore,
+	"source":                  Ignore,
+	"unit":                    FieldUnit, "units": FieldUnit, "mass unit": FieldUnit, "weight unit": FieldUnit,
 	"body fat": FieldBodyFat, "body fat %": FieldBodyFat, "body fat percent": FieldBodyFat, "fat %": FieldBodyFat, "bf %": FieldBodyFat, "bf": FieldBodyFat, "fat": FieldBodyFat,
 	"method": FieldMethod, "how measured": FieldMethod, "scale": FieldMethod,
 

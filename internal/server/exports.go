@@ -41,7 +41,10 @@ func writeCSV(w io.Writer, t store.ExportTable) error {
 	if _, err := io.WriteString(w, "\ufeff"); err != nil {
 		return err
 	}
+	// RFC 4180: records end in CRLF; fields holding a comma, a quote or a
+	// line break are quoted.
 	cw := csv.NewWriter(w)
+	cw.UseCRLF = true
 	if err := cw.Write(t.Header); err != nil {
 		return err
 	}
@@ -67,7 +70,7 @@ func (s *Server) clientExport(w http.ResponseWriter, r *http.Request) {
 		s.NotFound(w, r)
 		return
 	}
-	t, err := s.Store.ExportClient(r.Context(), c.ID, table)
+	t, err := s.Store.ExportClient(r.Context(), c.ID, table, c.Unit)
 	if err != nil {
 		s.ServerError(w, r, err)
 		return
@@ -91,7 +94,7 @@ func (s *Server) clientRecordZip(w http.ResponseWriter, r *http.Request, c store
 	var buf bytes.Buffer
 	zw := zip.NewWriter(&buf)
 	for _, name := range store.ExportTables {
-		t, err := s.Store.ExportClient(ctx, c.ID, name)
+		t, err := s.Store.ExportClient(ctx, c.ID, name, c.Unit)
 		if err != nil {
 			s.ServerError(w, r, err)
 			return

@@ -2,14 +2,27 @@ package store
 
 import (
 	"context"
+	"slices"
+	"strconv"
 
 	"github.com/jackc/pgx/v5"
+
+	"larder/internal/mass"
 )
 
 // A client's record as tables for export: text cells with dates in ISO 8601
 // and numbers with a decimal point, ready to write as CSV. The body-mass and
 // training tables use the column names the import reads, so an exported
 // file imports again unchanged.
+//
+// Every column holding a quantity names its unit in its header. A body mass
+// is given in kg, as stored and to the stored 0.01 kg, in "body mass (kg)"
+// whatever the client's unit: one exact column a program can rely on, and
+// the one the import reads back. For a client weighed in pounds a second
+// column, "body mass (lb, from kg)", gives the same mass to 0.1 lb as the
+// app shows it to them; the import leaves it out, since it only repeats the
+// kg column. An event's priority is written in words ("Goal race"), as
+// everywhere else in the app, not as its stored code.
 
 // ExportTable is one table of a client's record.
 type ExportTable struct {
@@ -48,8 +61,12 @@ var exportQueries = map[string]struct {
 		WHERE p.client_id = $1 ORDER BY p.created_at, p.id, v.version, d.on_date`},
 }
 
-// ExportClient gives one table of a client's record (see ExportTables).
-func (s *Store) ExportClient(ctx context.Context, clientID int64, table string) (ExportTable, error) {
+// MassLbHeader is the header of the body-mass export's column in pounds.
+const MassLbHeader = "body mass (lb, from kg)"
+
+// ExportClient gives one table of a client's record (see ExportTables);
+// unit is the body-mass unit the client is weighed in.
+func (s *Store) ExportClient(ctx context.Context, clientID int64, table string, unit mass.Unit) (ExportTable, error) {
 	q, ok := exportQueries[table]
 	if !ok {
 		return ExportTable{}, ErrNotFound
@@ -66,5 +83,37 @@ func (s *Store) ExportClient(ctx context.Context, clientID int64, table string) 
 		}
 		return cells, r.Scan(dest...)
 	})
-	return ExportTable{Name: table, Header: q.header, Rows: out}, err
+	if err != nil {
+		return ExportTable{}, err
+	}
+	t := ExportTable{Name: table, Header: q.header, Rows: out}
+	switch table {
+	case "events":
+		for _, row := range t.Rows {
+			row[eventsPriorityCol] = PriorityLabel(row[eventsPriorityCol])
+		}
+	case "body-mass":
+		if unit == mass.LB {
+			t.addLb()
+		}
+	}
+	return t, nil
+}
+
+// Columns of the exported tables that are rewritten after the query.
+const (
+	eventsPriorityCol = 8
+	massKgCol         = 1
+)
+
+// addLb puts the pound column after the kg one.
+func (t *ExportTable) addLb() {
+	t.Header = slices.Insert(slices.Clone(t.Header), massKgCol+1, MassLbHeader)
+	for i, row := range t.Rows {
+		lb := ""
+		if kg, err := strconv.ParseFloat(row[massKgCol], 64); err == nil {
+			lb = mass.Input(kg, mass.LB)
+		}
+		t.Rows[i] = slices.Insert(row, massKgCol+1, lb)
+	}
 }
