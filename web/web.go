@@ -119,10 +119,6 @@ func MassRangeHint() string {
 	return mass.Span(mass.KG) + ", or " + mass.Span(mass.LB) + ". Kept in kg."
 }
 
-// MassInput is a measurement as its edit form shows it back: in the unit it
-// was typed in, so that saving it unchanged stores the same kg.
-func MassInput(m store.BodyMass) string { return mass.Input(m.MassKg, mass.Unit(m.EnteredUnit)) }
-
 // Age is "34 y", or "—" when the date of birth is not recorded.
 func Age(c store.Client, today time.Time) string {
 	if a := c.AgeOn(today); a >= 0 {

@@ -55,6 +55,8 @@ func TestBrowserClientLinkOnPhone(t *testing.T) {
 	b, u := a.signedIn(store.RoleDietitian)
 	c := a.newClient(unique("Liv Marathon"))
 	c.Cautions = "Coeliac disease: strictly gluten-free"
+	c.Notes = "STAFF NOTE: ferritin low in the autumn"
+	c.SharedNote = "Keep to gluten-free foods."
 	if err := a.st.UpdateClient(context.Background(), store.System, &c); err != nil {
 		t.Fatal(err)
 	}
@@ -132,6 +134,29 @@ func TestBrowserClientLinkOnPhone(t *testing.T) {
 	}
 	fitsPhone(t, ctx, "load-day page")
 	phoneShot(t, ctx, "link-01-load-day")
+	// Today's feeding times come first: the page's first heading is
+	// today's fuelling, and the first feed's time, the one the plan gives,
+	// is on the first screen without scrolling. The recorded caution and
+	// the staff notes are nowhere on the page; the shared note is.
+	firstHeading, err := chromedp.Run(ctx, chromedp.Evaluate[string](`document.querySelector("main h2").id`))
+	if err != nil || firstHeading != "todays-fuelling" {
+		t.Errorf("the first heading of the phone page is #%s (%v), want today's fuelling", firstHeading, err)
+	}
+	firstTime := today.Feeds[0].At.In(time.UTC).Format("15:04") // Europe/London is on UTC in March
+	shown, err = chromedp.Run(ctx, chromedp.Evaluate[string](`(() => { const e = document.querySelector("#feeds li .time");
+		const r = e.getBoundingClientRect(); return r.bottom <= window.innerHeight ? e.textContent.trim() : "below the first screen: " + r.bottom })()`))
+	if err != nil || shown != firstTime {
+		t.Errorf("first feeding time on the phone's first screen: %q (%v), want %s", shown, err, firstTime)
+	}
+	pageText := text(t, ctx, "body")
+	for _, never := range []string{"Coeliac", "strictly gluten-free", "STAFF NOTE", "ferritin"} {
+		if strings.Contains(pageText, never) {
+			t.Errorf("the phone page shows the private %q", never)
+		}
+	}
+	if !strings.Contains(pageText, "Keep to gluten-free foods.") {
+		t.Error("the phone page lacks the shared note")
+	}
 
 	// The same link on race day (the test clock moved on).
 	s2 := New(Config{Store: a.st, SessionCleanup: -1, Now: func() time.Time { return time.Date(2027, 3, 3, 6, 0, 0, 0, time.UTC) }})

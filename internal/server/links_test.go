@@ -12,8 +12,10 @@ import (
 	"unicode/utf8"
 
 	"larder/internal/fuel"
+	"larder/internal/mass"
 	"larder/internal/menu"
 	"larder/internal/sheet"
+	"larder/internal/sheet/sheettest"
 	"larder/internal/store"
 	"larder/web"
 )
@@ -577,14 +579,16 @@ func TestClientLinkOverlappingPlansLatestWins(t *testing.T) {
 
 // TestClientLinkPromiseKept holds the client-link panel to its promise:
 // a recorded caution and the staff notes never reach the athlete's phone
-// page or calendar; only the health note the dietitian shares does; energy
-// and body-mass figures (kcal, g per kg) appear only when chosen.
+// page, calendar or sheet; only the health note the dietitian shares does;
+// energy and body-mass figures (kcal, g per kg, the body mass in the
+// client's lb) appear only when chosen.
 func TestClientLinkPromiseKept(t *testing.T) {
 	a := newApp(t)
 	b, _ := a.signedIn(store.RoleDietitian)
 	c := a.newClient(unique("Iris Note"))
 	c.Cautions = "Type 1 diabetes: changes agreed with her diabetes team\nEating-disorder history (2022)"
 	c.Notes = "STAFF NOTE: low ferritin last spring"
+	c.MassUnit = mass.LB
 	if err := a.st.UpdateClient(context.Background(), store.System, &c); err != nil {
 		t.Fatal(err)
 	}
@@ -594,19 +598,43 @@ func TestClientLinkPromiseKept(t *testing.T) {
 		"none of your notes and none of the recorded cautions: of the health notes, only the one you share with the athlete",
 		"Energy and body-mass figures appear only when you chose to show them")
 	today := plan.Days[0]
-	private := []string{"Type 1", "diabetes team", "Eating-disorder", "STAFF NOTE", "ferritin", "Health note", "note from your dietitian"}
-	figures := []string{" kcal", "g per kg", web.Num(today.EnergyKcal, 0)}
+	private := []string{"Type 1", "diabetes team", "Eating-disorder", "STAFF NOTE", "ferritin", "Health note", "note from your dietitian", "note about your health"}
+	// 64 kg / 0.45359237 = 141.1 lb (international pound).
+	bodyMass := mass.Text(plan.BodyMassKg, mass.LB)
+	if bodyMass != "141.1 lb" {
+		t.Fatalf("the plan's body mass reads %q, want 141.1 lb", bodyMass)
+	}
+	figures := []string{" kcal", "g per kg", "per kg", " lb", " kg", bodyMass, web.Num(today.EnergyKcal, 0)}
+	athleteSheet := func() string {
+		t.Helper()
+		res, pdf := getPublic(t, a, "/c/"+token+"/sheet.pdf")
+		if res.StatusCode != http.StatusOK {
+			t.Fatalf("athlete's sheet: %d", res.StatusCode)
+		}
+		text, ok := sheettest.Text(t, []byte(pdf))
+		if !ok {
+			t.Skip("pdftotext not installed")
+		}
+		return text
+	}
 
 	_, page := getPublic(t, a, "/c/"+token)
 	_, ics := getPublic(t, a, "/c/"+token+"/plan.ics")
 	cal := strings.Join(checkICS(t, ics), "\n")
+	sheetText := athleteSheet()
 	response{body: page}.mustContain(t, web.Num(today.ChoG, 0)+" g", web.Num(today.Feeds[0].ChoG, 0)+" g carbohydrate")
+	if !strings.Contains(sheetText, web.Num(today.Feeds[0].ChoG, 0)+" g") {
+		t.Errorf("the athlete's sheet lacks the first feed's %v g:\n%s", today.Feeds[0].ChoG, sheetText)
+	}
 	for _, never := range append(private, figures...) {
 		if i := strings.Index(page, never); i >= 0 {
 			t.Errorf("phone page shows %q though nothing was shared: …%s…", never, page[max(0, i-200):min(len(page), i+100)])
 		}
 		if i := strings.Index(cal, never); i >= 0 {
 			t.Errorf("calendar shows %q though nothing was shared: …%s…", never, cal[max(0, i-200):min(len(cal), i+100)])
+		}
+		if i := strings.Index(sheetText, never); i >= 0 {
+			t.Errorf("athlete's sheet shows %q though nothing was shared: …%s…", never, sheetText[max(0, i-200):min(len(sheetText), i+100)])
 		}
 	}
 
@@ -623,9 +651,19 @@ func TestClientLinkPromiseKept(t *testing.T) {
 	_, page = getPublic(t, a, "/c/"+token)
 	response{body: page}.mustContain(t, "A note from your dietitian", "Check your glucose as your diabetes team showed you.",
 		web.Num(today.EnergyKcal, 0)+" kcal", web.Num(today.ChoGPerKg, 1)+" g per kg body mass")
+	sheetText = athleteSheet()
+	for _, want := range []string{"A note about your health", "Check your glucose as your diabetes team showed you.",
+		"about " + web.Num(today.EnergyKcal, 0) + " kcal", web.Num(today.ChoGPerKg, 1) + " g carbohydrate per kg body weight"} {
+		if !strings.Contains(sheetText, want) {
+			t.Errorf("shared and shown, the athlete's sheet lacks %q:\n%s", want, sheetText)
+		}
+	}
 	for _, never := range []string{"Type 1 diabetes", "Eating-disorder", "STAFF NOTE", "ferritin"} {
 		if strings.Contains(page, never) {
 			t.Errorf("phone page shows the private %q next to the shared note", never)
+		}
+		if strings.Contains(sheetText, never) {
+			t.Errorf("athlete's sheet shows the private %q next to the shared note", never)
 		}
 	}
 }

@@ -78,7 +78,7 @@ func (s *Server) bodyMassEditPage(w http.ResponseWriter, r *http.Request) {
 	if !ok {
 		return
 	}
-	f := forms.FromValues(bodyMassValues(m))
+	f := forms.FromValues(bodyMassValues(m, c.Unit))
 	if err := s.setVersion(r, f, store.VersionBodyMass, m.ID); err != nil {
 		s.ServerError(w, r, err)
 		return

@@ -101,10 +101,15 @@ func TestBodyMassAddEditDelete(t *testing.T) {
 		t.Fatalf("stored %+v / %+v", list[0], list[1])
 	}
 	// Newest first on the page, in the client's unit (the practice's kg):
-	// 68.04 kg shows as 68.0 kg; its edit form shows it back as typed.
+	// 68.04 kg shows as 68.0 kg; its edit form shows it in kg too, and
+	// saved unchanged it keeps the kg and the unit it was typed in.
 	page := b.get(base)
 	page.mustContain(t, "68.0 kg", "61.4 kg", "21.5 %")
-	b.get(base+"/body-mass/"+itoa(list[0].ID)+"/edit").mustContain(t, `name="mass" value="150"`, `name="unit" value="lb" checked`)
+	b.get(base+"/body-mass/"+itoa(list[0].ID)+"/edit").mustContain(t, `name="mass" value="68.04"`, `name="unit" value="kg" checked`)
+	b.post(base+"/body-mass/"+itoa(list[0].ID), url.Values{"version": {"1"}, "measured_on": {"2027-03-01"}, "mass": {"68.04"}, "unit": {"kg"}}).mustRedirect(t, base)
+	if m, _ := a.st.BodyMassByID(ctx, c.ID, list[0].ID); m.MassKg != 68.04 || m.EnteredUnit != "lb" {
+		t.Fatalf("saved unchanged: %v kg typed in %q, want 68.04 kg typed in lb", m.MassKg, m.EnteredUnit)
+	}
 	if strings.Index(page.body, "Mon 1 Mar 2027") > strings.Index(page.body, "Sat 20 Feb 2027") {
 		t.Fatal("body-mass history is not newest first")
 	}

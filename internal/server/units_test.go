@@ -68,6 +68,26 @@ func TestPoundsEverywhere(t *testing.T) {
 		t.Error("client page shows the mass in kg")
 	}
 	b.get("/clients?q="+url.QueryEscape(c.Name)).mustContain(t, "150.4 lb")
+	// Its edit form is in lb as well (68 kg / 0.45359237 = 149.91 lb), and
+	// saved as shown it stays 68 kg.
+	list, err := a.st.ListBodyMass(context.Background(), c.ID)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var kgTyped store.BodyMass
+	for _, m := range list {
+		if m.EnteredUnit == "kg" && m.MassKg == 68 {
+			kgTyped = m
+		}
+	}
+	kgEdit := "/clients/" + cid + "/body-mass/" + itoa64(kgTyped.ID)
+	page = b.get(kgEdit + "/edit")
+	page.mustContain(t, `name="mass" value="149.9"`, `name="unit" value="lb" checked`)
+	b.post(kgEdit, url.Values{"measured_on": {"2027-02-20"}, "mass": {"149.9"}, "unit": {"lb"},
+		"version": {regexp.MustCompile(`name="version" value="(\d+)"`).FindStringSubmatch(page.body)[1]}}).mustRedirect(t, "/clients/"+cid)
+	if again, _ := a.st.BodyMassByID(context.Background(), c.ID, kgTyped.ID); again.MassKg != 68 {
+		t.Fatalf("a kg measurement saved unchanged from the lb form: %v kg", again.MassKg)
+	}
 
 	// The plan form: in lb, prefilled from the measurement.
 	newPlan := b.get("/clients/" + cid + "/plans/new")

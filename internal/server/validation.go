@@ -123,10 +123,15 @@ func (in *bodyMassForm) check(f forms.Form, today time.Time, born *time.Time) {
 	}
 }
 
+// apply writes the form into m. The edit form shows a measurement in the
+// client's unit, which need not be the unit it was typed in: a number sent
+// back as shown keeps the stored kg (and the unit it was typed in), so that
+// saving a form unchanged never moves a mass by a conversion's rounding.
 func (in *bodyMassForm) apply(m *store.BodyMass) {
 	m.MeasuredOn = in.MeasuredOn
-	m.MassKg = mass.StoredKg(*in.Mass, mass.Unit(in.Unit))
-	m.EnteredUnit = in.Unit
+	if kg := mass.Reread(*in.Mass, mass.Unit(in.Unit), m.MassKg); kg != m.MassKg || m.EnteredUnit == "" {
+		m.MassKg, m.EnteredUnit = kg, in.Unit
+	}
 	m.BodyFatPct = in.BodyFatPct
 	if m.BodyFatPct != nil {
 		v := forms.Round(*m.BodyFatPct, 1)
@@ -135,11 +140,13 @@ func (in *bodyMassForm) apply(m *store.BodyMass) {
 	m.Method = in.Method
 }
 
-func bodyMassValues(m store.BodyMass) url.Values {
+// bodyMassValues fills the edit form with a measurement in the client's
+// unit u, whatever unit it was typed in.
+func bodyMassValues(m store.BodyMass, u mass.Unit) url.Values {
 	v := url.Values{}
 	v.Set("measured_on", web.ISODate(m.MeasuredOn))
-	v.Set("unit", m.EnteredUnit)
-	v.Set("mass", web.MassInput(m))
+	v.Set("unit", string(u))
+	v.Set("mass", mass.Input(m.MassKg, u))
 	if m.BodyFatPct != nil {
 		v.Set("body_fat_pct", web.Num(*m.BodyFatPct, 1))
 	}
