@@ -45,8 +45,12 @@ func TestSuggestionsKeepEveryDietaryNeed(t *testing.T) {
 		"no_peanuts":        regexp.MustCompile(`(?i)ground ?nut|peanut`),
 		"no_egg":            regexp.MustCompile(`(?i)\begg`),
 		"no_fish_shellfish": regexp.MustCompile(`(?i)tuna|fish|prawn`),
-		"vegetarian":        regexp.MustCompile(`(?i)chicken|tuna|fish|mutton|pork`),
+		"vegetarian":        regexp.MustCompile(`(?i)chicken|tuna|fish|mutton|pork|\bham\b|goat|salmon|prawn|liver`),
 		"vegan":             regexp.MustCompile(`(?i)milk|paneer|shake|honey|\begg|chicken|tuna`),
+		"no_soy":            regexp.MustCompile(`(?i)\bsoy|tofu`),
+		"no_pork":           regexp.MustCompile(`(?i)pork|\bham\b|bacon`),
+		"no_alcohol":        regexp.MustCompile(`(?i)\bbeer|\bwine\b`),
+		"low_fodmap":        regexp.MustCompile(`(?i)honey|\bmilk|wheat|watermelon|\bpear\b|\bapple\b`),
 	}
 	checked, nothing := 0, 0
 	for _, p := range plans {

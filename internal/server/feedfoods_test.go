@@ -23,9 +23,9 @@ import (
 
 // TestOneFoodPlanPerFeedOnEverySurface loads the demo practice and, for
 // every demo plan, reads each feed's stored food plan and finds the same
-// words in that feed's place on the plan page, the plan sheet, the client's
-// calendar and the client's phone page (a clock set to each day of the
-// plan). A feed listed twice — the pre-event meal or a repletion feed that
+// words in that feed's place on the plan page, the plan sheet in both its
+// forms (the dietitian's and the athlete's), the client's calendar and the
+// client's phone page (a clock set to each day of the plan). A feed listed twice — the pre-event meal or a repletion feed that
 // is also a feed of its day — must carry one food plan, not two.
 func TestOneFoodPlanPerFeedOnEverySurface(t *testing.T) {
 	var clock atomic.Int64
@@ -147,6 +147,40 @@ func TestOneFoodPlanPerFeedOnEverySurface(t *testing.T) {
 			}
 		}
 
+		// The athlete's sheet: under each day's heading, each feed's time
+		// is followed by its food plan (a feed the foods could not fill
+		// prints no food).
+		apdf := b.get(fmt.Sprintf("/clients/%d/plans/%d/sheet.pdf?form=athlete", dp.clientID, dp.planID))
+		if text, ok := sheettest.Text(t, []byte(apdf.body)); ok {
+			folded := fold(text)
+			heading := func(date string) string {
+				d, _ := time.Parse(time.DateOnly, date)
+				return d.Format("Mon 2 Jan") + " · "
+			}
+			for di, d := range plan.Days {
+				start := strings.Index(folded, heading(d.Date))
+				if start < 0 {
+					t.Errorf("%s: athlete's sheet has no heading for %s", name, d.Date)
+					continue
+				}
+				section := folded[start:]
+				if di+1 < len(plan.Days) {
+					if end := strings.Index(section, heading(plan.Days[di+1].Date)); end > 0 {
+						section = section[:end]
+					}
+				}
+				for i, f := range d.Feeds {
+					sg := stored[menu.FeedKey("day", d.Date, i)]
+					if sg == "" || sg == menu.NoFit {
+						continue
+					}
+					if at := f.At.In(loc).Format("15:04"); !followedBy(section, at, fold(sg)) {
+						t.Errorf("%s: athlete's sheet, %s: no %s followed by its food plan %q", name, d.Date, at, sg)
+					}
+				}
+			}
+		}
+
 		// The client link: a link per client, made once.
 		if tokens[dp.clientID] == "" {
 			tokens[dp.clientID] = makeLink(t, b, dp.clientID, "feeds check")
@@ -186,7 +220,7 @@ func TestOneFoodPlanPerFeedOnEverySurface(t *testing.T) {
 		if owned == 0 {
 			t.Errorf("%s: no feed of it reached the phone page", name)
 		}
-		t.Logf("%s: %d feeds compared on %d surfaces", name, feeds, 4)
+		t.Logf("%s: %d feeds compared on %d surfaces", name, feeds, 5)
 	}
 	for _, k := range []string{fuel.KindLoading, fuel.KindRace, fuel.KindRepletion, fuel.KindWeek} {
 		if !kinds[k] {

@@ -658,7 +658,10 @@ func TestClientLinkPromiseKept(t *testing.T) {
 			t.Errorf("shared and shown, the athlete's sheet lacks %q:\n%s", want, sheetText)
 		}
 	}
-	for _, never := range []string{"Type 1 diabetes", "Eating-disorder", "STAFF NOTE", "ferritin"} {
+	// Figures shown are the athlete's figures: never the dietitian's units
+	// or citations.
+	for _, never := range []string{"Type 1 diabetes", "Eating-disorder", "STAFF NOTE", "ferritin",
+		"mmol", "FFM", "kcal/kg", "et al", "Source", "from memory", "common practice"} {
 		if strings.Contains(page, never) {
 			t.Errorf("phone page shows the private %q next to the shared note", never)
 		}
