@@ -61,6 +61,7 @@ func NewSessionManager(pool *pgxpool.Pool, opt SessionOptions) *scs.SessionManag
 		ps = pgxstore.NewWithCleanupInterval(pool, opt.CleanupInterval)
 	}
 	m.Store = sessionStore{PostgresStore: ps, pool: pool}
+	m.Codec = codec{}
 	m.Lifetime = SessionLifetime
 	m.Cookie.Name = "larder_session"
 	m.Cookie.HttpOnly = true
