@@ -185,7 +185,16 @@ type PlanView struct {
 	Notice         string            // e.g. the concurrent-edit message
 	Tolerance      string            // the food suggestions' tolerance, in words
 	SuggestionNote string            // e.g. that suggestions are gluten-free for a recorded caution
+
+	// SetAside lists the dietitian's food choices kept with the version
+	// for feeds it no longer has; SetAsideURL removes them (a draft only).
+	SetAside    []SetAsideChoice
+	SetAsideURL string
 }
+
+// SetAsideChoice is a food choice whose feed went with a change of the plan:
+// Key names the feed as the choice does, Feed in words, Text the lines.
+type SetAsideChoice struct{ Key, Feed, Text string }
 
 // Carried is one value a person typed for a version that could not take it.
 type Carried struct{ Name, Label, Value string }

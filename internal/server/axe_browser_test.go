@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"net/http/httptest"
 	"os"
+	"regexp"
 	"strings"
 	"testing"
 	"time"
@@ -297,6 +298,21 @@ func TestBrowserAxeEveryPage(t *testing.T) {
 	}
 	axeCheck(t, ctx, src, "plan draft with a food choice")
 	axeVisit(t, ctx, src, "feed food with a saved choice", foodPage)
+	// A choice whose feed the draft no longer has: listed as set aside, with
+	// its Remove button.
+	m := regexp.MustCompile(`/plans/(\d+)/versions/`).FindStringSubmatch(draftURL)
+	if m == nil {
+		t.Fatalf("draft address %q", draftURL)
+	}
+	if _, err := a.st.Pool.Exec(context.Background(), `INSERT INTO plan_feed_choices (plan_version_id, kind, on_date, feed_index, line, free, name, cho_g)
+		SELECT plan_version_id, kind, on_date, 99, 0, true, 'banana bread', 40 FROM plan_feed_choices
+		WHERE plan_version_id = (SELECT id FROM plan_versions WHERE plan_id = $1 AND status = 'draft') LIMIT 1`, m[1]); err != nil {
+		t.Fatal(err)
+	}
+	axeVisit(t, ctx, src, "plan draft with a food choice set aside", draftURL)
+	if got := text(t, ctx, "#set-aside-choices"); !strings.Contains(got, "banana bread") {
+		t.Errorf("set-aside list = %q", got)
+	}
 
 	if err := chromedp.Do(ctx, chromedp.Navigate(draftURL), chromedp.WaitVisible(chromedp.ID("plan-edit"))); err != nil {
 		t.Fatal(err)

@@ -220,6 +220,9 @@ func (s *Server) renderPlanWith(w http.ResponseWriter, r *http.Request, status i
 		s.ServerError(w, r, err)
 		return
 	}
+	if pv.SetAside = setAsideChoices(v, pr.choices); len(pv.SetAside) > 0 && v.Status == store.PlanDraft {
+		pv.SetAsideURL = pv.ActionURL + "/set-aside-choices"
+	}
 	pv.SuggestionNote = opts.Note()
 	pv.Form = f
 	pv.MassUnit = mass.Or(mass.Unit(f.Get(massUnitName)), c.Unit)

@@ -7,5 +7,6 @@ func (s *Server) mountPlanRoutes(r chi.Router) {
 	s.mountFoodRoutes(r)
 	s.mountPlanPages(r)
 	s.mountFeedFoodRoutes(r)
+	s.mountSetAsideRoutes(r)
 	s.mountAPI(r)
 }

@@ -233,3 +233,42 @@ func (s *Store) SetFeedChoice(ctx context.Context, actor Actor, versionID int64,
 func (s *Store) ComputedSuggestions(ctx context.Context, versionID int64) (map[string]string, error) {
 	return computedSuggestionsOf(ctx, s.Pool, versionID)
 }
+
+// RemoveSetAsideChoices removes from a draft the food choices of the feeds
+// named by keys (FeedKey) that the version no longer has: choices set aside
+// when a change of the plan took their feed away. A choice whose feed still
+// exists is left alone whatever keys say; it is changed on its feed's food
+// page. Like any save of the draft it needs the revision the caller edited
+// (ErrStaleRevision, ErrNotDraft otherwise; nothing is written); removed is
+// how many feeds' choices went.
+func (s *Store) RemoveSetAsideChoices(ctx context.Context, actor Actor, versionID int64, revision int, keys []string) (removed int, err error) {
+	err = s.inTx(ctx, func(tx pgx.Tx) error {
+		if err := lockDraft(ctx, tx, versionID, revision); err != nil {
+			return err
+		}
+		if err := tx.QueryRow(ctx, `WITH gone AS (
+				DELETE FROM plan_feed_choices c
+				WHERE c.plan_version_id = $1 AND (c.kind || ':' || c.on_date::text || ':' || c.feed_index) = ANY($2)
+				AND NOT EXISTS (SELECT 1 FROM plan_feeds f WHERE f.plan_version_id = c.plan_version_id
+					AND f.kind = c.kind AND f.on_date = c.on_date AND f.feed_index = c.feed_index)
+				RETURNING c.kind, c.on_date, c.feed_index)
+			SELECT count(DISTINCT (kind, on_date, feed_index)) FROM gone`, versionID, keys).Scan(&removed); err != nil {
+			return err
+		}
+		if removed == 0 {
+			return nil
+		}
+		var planID int64
+		var version, rev int
+		if err := tx.QueryRow(ctx, `UPDATE plan_versions SET revision = revision + 1, updated_by = $2, updated_at = now() WHERE id = $1
+			RETURNING plan_id, version, revision`, versionID, actorID(actor)).Scan(&planID, &version, &rev); err != nil {
+			return err
+		}
+		if _, err := tx.Exec(ctx, `UPDATE plans SET updated_at = now() WHERE id = $1`, planID); err != nil {
+			return err
+		}
+		return AuditTx(ctx, tx, actor, "update", "plan", planID, map[string]any{"version": version, "revision": rev,
+			"set_aside_food_choices_removed": removed})
+	})
+	return removed, err
+}
