@@ -438,6 +438,20 @@ func TestBrowserAxeStaffPhoneWidth(t *testing.T) {
 				t.Errorf("%s: %s is %s %v", page, sel, why, err)
 			}
 		}
+		// No table runs past the screen's edge or scrolls sideways inside
+		// its own box: at phone width each is stacked rows. The Sources
+		// table alone is a box a keyboard scrolls (long text in many columns).
+		wide, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...document.querySelectorAll("main table")].filter(t => !t.matches("#sources")).flatMap(t => {
+				const name = t.id || (t.closest("[id]") || {}).id || t.className, r = t.getBoundingClientRect(), box = t.parentElement;
+				if (r.right > window.innerWidth + 0.5 || r.left < -0.5) return [name + " spans " + Math.round(r.left) + " to " + Math.round(r.right) + " px"];
+				if (t.scrollWidth > t.clientWidth + 1 || box.scrollWidth > box.clientWidth + 1) return [name + " scrolls sideways (" + Math.max(t.scrollWidth, box.scrollWidth) + " px of content in " + Math.min(t.clientWidth, box.clientWidth) + " px)"];
+				return [] })`))
+		if err != nil {
+			t.Fatalf("%s: %v", page, err)
+		}
+		for _, w := range wide {
+			t.Errorf("%s: table %s at 390 px", page, w)
+		}
 		hidden, _ := chromedp.Run(ctx, chromedp.Evaluate[string](`getComputedStyle(document.querySelector("nav.wide")).display`))
 		if hidden != "none" {
 			t.Errorf("%s: the row of links shows at phone width (display %q)", page, hidden)
@@ -476,10 +490,18 @@ func TestBrowserAxeStaffPhoneWidth(t *testing.T) {
 	axeCheck(t, ctx, src, "plan draft at 390 px")
 	fits("plan draft", "main h1", "#plan-days tr.day td:nth-child(4) input", "#plan-edit button[value=save]", "table.feeds td:nth-child(3)")
 
+	// The stage race's plan: its table of stages is stacked too.
+	if err := chromedp.Do(ctx, chromedp.Navigate(a.srv.URL+"/clients/"+itoa64(res.IDs.Clients["cyclist"])), chromedp.WaitVisible(chromedp.ID("plans"))); err != nil {
+		t.Fatal(err)
+	}
+	fits("cyclist's client page", "#plans td[data-label=Plan]")
+	axeVisit(t, ctx, src, "stage race plan at 390 px", firstHref(t, ctx, `#plans a[href*="/plans/"]:not([href*="/plans/new"])`))
+	fits("stage race plan", "main h1", `table.stages tr[data-stage="4"] td[data-label="Pre-stage meal"]`)
+
 	// The other pages a dietitian works in between sessions: each form fits
 	// the phone's width with its first field and its button on screen.
 	for _, pg := range []struct{ name, path, field string }{
-		{"overview", "/", "main h1"},
+		{"overview", "/", "#overview-unopened td[data-label=Client]"},
 		{"new plan form", "/clients/" + itoa64(res.IDs.Clients["marathoner"]) + "/plans/new", "main button[type=submit]"},
 		{"new body mass form", "/clients/" + itoa64(res.IDs.Clients["marathoner"]) + "/body-mass/new", "main button[type=submit]"},
 		{"new event form", "/clients/" + itoa64(res.IDs.Clients["marathoner"]) + "/events/new", "main button[type=submit]"},
