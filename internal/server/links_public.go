@@ -261,7 +261,6 @@ func noteLines(note string) []string {
 }
 
 func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
-	plan := p.Version.Result
 	t := &web.ClientToday{Role: clientRoleWords(d), ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1),
 		ProteinG: web.Num(d.ProteinG, 0), FatG: web.Num(d.FatG, 0), EnergyKcal: web.Num(d.EnergyKcal, 0),
 		LowFibre: d.LowFibre, Advice: d.Advice}
@@ -271,7 +270,11 @@ func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
 			t.LowFibre = false
 		}
 	}
-	blockFood := map[int64]web.ClientFeed{}
+	// The in-event feed of a block of hours, a stage or the event is shown
+	// once, in the box or line that gives its rate, with its food idea;
+	// listing it again among the feeds would give the athlete the same
+	// total twice.
+	inEvent := map[int64]web.ClientFeed{}
 	for i, f := range d.Feeds {
 		fv := web.ClientFeed{Time: f.At.In(p.loc).Format("15:04"), Label: clientFeedLabel(f.Label), ChoG: web.Num(f.ChoG, 0),
 			Suggestion: p.Suggestions[menu.FeedKey("day", d.Date, i)], Key: menu.FeedKey("day", d.Date, i),
@@ -282,29 +285,39 @@ func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
 		if f.ProteinG > 0 {
 			fv.ProteinG = web.Num(f.ProteinG, 0)
 		}
-		if f.Label == "during event" && blockStarts(p, f.At) {
-			// The block's line below carries its food idea: listing the
-			// block again as a feed would show the athlete each block twice.
-			blockFood[f.At.Unix()] = fv
-			continue
-		}
-		if l, ok := raceFeedLabel(p, f); ok && f.Label == "during event" {
-			fv.Label = l
+		if f.Label == "during event" {
+			inEvent[f.At.Unix()] = fv
 		}
 		t.Feeds = append(t.Feeds, fv)
 	}
-	t.Race = raceToday(p, d, blockFood)
+	shown := map[string]bool{} // keys of in-event feeds a box or line carries
+	t.Race = raceToday(p, d, inEvent, shown)
+	t.Event = eventToday(p, d, inEvent, shown)
+	feeds := t.Feeds[:0]
+	for _, f := range t.Feeds {
+		if !shown[f.Key] {
+			feeds = append(feeds, f)
+		}
+	}
+	t.Feeds = feeds
+	return t
+}
+
+// eventToday is the event box of a single event's day (a stage race's
+// days show their stages instead, raceToday), or nil; the in-event feed it
+// shows is marked in shown.
+func eventToday(p linkPlan, d fuel.Day, inEvent map[int64]web.ClientFeed, shown map[string]bool) *web.ClientEventDay {
+	plan := p.Version.Result
 	ev := p.Version.Request.Event
-	// A stage race's days show their stages instead (raceToday).
 	if ev == nil || ev.StartsAt.In(p.loc).Format(time.DateOnly) != d.Date || len(plan.Stages) > 0 {
-		return t
+		return nil
 	}
 	e := &web.ClientEventDay{Name: "Your event", Start: ev.StartsAt.In(p.loc).Format("15:04")}
 	if p.eventName != "" {
 		e.Name = p.eventName
 	}
 	if m := plan.PreEventMeal; m != nil {
-		e.PreMealTime, e.PreMealChoG = m.At.In(p.loc).Format("15:04"), web.Num(m.ChoG, 0)
+		e.PreMealTime = m.At.In(p.loc).Format("15:04")
 	}
 	if de := plan.DuringEvent; de != nil && de.ChoGPerH > 0 {
 		e.DuringGPerH, e.DuringTotalG, e.DuringHours = web.Num(de.ChoGPerH, 0), web.Num(de.TotalChoG, 0), hoursWords(de.DurationMin)
@@ -312,9 +325,17 @@ func todayView(p linkPlan, d fuel.Day) *web.ClientToday {
 		// would not add up to the total, so the box gives the total and the
 		// legs below give each rate.
 		e.DuringLegs = len(de.Segments) > 0
+		// The event's one in-event feed (at the start, or after the swim
+		// of a multi-sport race); an event over blocks of hours has one a
+		// block, shown on the block's line.
+		if len(de.Blocks) == 0 && len(inEvent) == 1 {
+			for _, f := range inEvent {
+				e.Suggestion, e.Key = f.Suggestion, f.Key
+				shown[f.Key] = true
+			}
+		}
 	}
-	t.Event = e
-	return t
+	return e
 }
 
 // feedLinkWindow keeps recently ended plans in the calendar feed for a

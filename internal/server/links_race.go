@@ -14,9 +14,10 @@ import (
 // an event over a day. Every figure is the stored plan's, only formatted.
 
 // raceToday is the race part of day d, or nil when the day has none;
-// blockFood is the day's in-event feed of each block by its start (Unix
-// seconds), whose food idea the block's line shows.
-func raceToday(p linkPlan, d fuel.Day, blockFood map[int64]web.ClientFeed) *web.ClientRace {
+// inEvent is the day's in-event feeds by their start (Unix seconds): a
+// stage's box and a block's line show their feed's food idea, and mark
+// the feed in shown so that it is not listed again.
+func raceToday(p linkPlan, d fuel.Day, inEvent map[int64]web.ClientFeed, shown map[string]bool) *web.ClientRace {
 	plan := p.Version.Result
 	on := func(t time.Time) bool { return t.In(p.loc).Format(time.DateOnly) == d.Date }
 	r := &web.ClientRace{Name: "Your race"}
@@ -25,7 +26,12 @@ func raceToday(p linkPlan, d fuel.Day, blockFood map[int64]web.ClientFeed) *web.
 	}
 	for i, st := range plan.Stages {
 		if on(st.StartsAt) {
-			r.Stages = append(r.Stages, clientStage(p, i, st, i+1 < len(plan.Stages)))
+			cs := clientStage(p, i, st, i+1 < len(plan.Stages))
+			if f, ok := inEvent[st.StartsAt.Unix()]; ok && cs.GPerH != "" {
+				cs.Suggestion, cs.Key = f.Suggestion, f.Key
+				shown[f.Key] = true
+			}
+			r.Stages = append(r.Stages, cs)
 		}
 	}
 	de := plan.DuringEvent
@@ -45,8 +51,9 @@ func raceToday(p linkPlan, d fuel.Day, blockFood map[int64]web.ClientFeed) *web.
 			if on(b.From) {
 				cb := web.ClientBlock{From: b.From.In(p.loc).Format("Mon 15:04"), To: b.To.In(p.loc).Format("Mon 15:04"),
 					GPerH: web.Num(b.ChoGPerH, 0), ChoG: web.Num(b.ChoG, 0), Night: b.Night}
-				if f, ok := blockFood[b.From.Unix()]; ok {
+				if f, ok := inEvent[b.From.Unix()]; ok {
 					cb.Suggestion, cb.Key = f.Suggestion, f.Key
+					shown[f.Key] = true
 				}
 				r.Blocks = append(r.Blocks, cb)
 			}
@@ -63,7 +70,7 @@ func raceToday(p linkPlan, d fuel.Day, blockFood map[int64]web.ClientFeed) *web.
 func clientStage(p linkPlan, i int, st fuel.StagePlan, more bool) web.ClientStage {
 	s := web.ClientStage{Number: strconv.Itoa(i + 1), Start: st.StartsAt.In(p.loc).Format("15:04"), Duration: hoursWords(st.DurationMin)}
 	if m := st.PreEventMeal; m != nil {
-		s.PreMeal = web.Num(m.ChoG, 0) + " g carbohydrate at " + m.At.In(p.loc).Format("15:04")
+		s.PreMeal = "your pre-stage meal at " + m.At.In(p.loc).Format("15:04") + " (in the feeding times below)"
 	} else if st.DurationMin > 60 && i > 0 {
 		// The engine lets the refuelling after a close stage before stand
 		// for the pre-stage meal.
@@ -82,49 +89,16 @@ func clientStage(p linkPlan, i int, st fuel.StagePlan, more bool) web.ClientStag
 		case r.Speedy:
 			s.Refuel = fmt.Sprintf("refuel fast: %s g carbohydrate in %d feeds from %s, before the next stage (each is listed below).", web.Num(total, 0), len(r.Feeds), first)
 		case more:
-			s.Refuel = "a recovery feed at " + first + " (" + web.Num(total, 0) + " g carbohydrate), then the day's meals."
+			s.Refuel = "a recovery feed at " + first + " (in the feeding times below), then the day's meals."
 		default:
-			s.Refuel = "a recovery feed at " + first + " (" + web.Num(total, 0) + " g carbohydrate), then the recovery day."
+			s.Refuel = "a recovery feed at " + first + " (in the feeding times below), then the recovery day."
 		}
 	}
 	return s
-}
-
-// blockStarts reports whether an hour block of the plan's event starts at t.
-func blockStarts(p linkPlan, t time.Time) bool {
-	de := p.Version.Result.DuringEvent
-	if de == nil || len(p.Version.Result.Stages) > 0 {
-		return false
-	}
-	for _, b := range de.Blocks {
-		if b.From.Equal(t) {
-			return true
-		}
-	}
-	return false
 }
 
 // raceClock writes minutes of race time as h:mm.
 func raceClock(min float64) string {
 	m := int(min + 0.5)
 	return fmt.Sprintf("%d:%02d", m/60, m%60)
-}
-
-// raceFeedLabel names an in-event feed of a stage or an hour block; ok is
-// false for the single event's in-event total.
-func raceFeedLabel(p linkPlan, f fuel.Feed) (string, bool) {
-	plan := p.Version.Result
-	for i, st := range plan.Stages {
-		if st.StartsAt.Equal(f.At) {
-			return "During stage " + strconv.Itoa(i+1) + " (in all)", true
-		}
-	}
-	if de := plan.DuringEvent; de != nil {
-		for _, b := range de.Blocks {
-			if b.From.Equal(f.At) {
-				return "During the race, " + b.From.In(p.loc).Format("15:04") + " to " + b.To.In(p.loc).Format("15:04") + " (in all)", true
-			}
-		}
-	}
-	return "", false
 }

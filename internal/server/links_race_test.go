@@ -128,8 +128,19 @@ func TestClientLinkStageRaceDays(t *testing.T) {
 		if !strings.Contains(box, "Fjord Tour, stage "+n+": start "+day.Format("15:04")) {
 			t.Errorf("stage %s: box heading wrong:\n%s", n, box)
 		}
-		if m := st.PreEventMeal; m != nil && !strings.Contains(box, web.Num(m.ChoG, 0)+" g carbohydrate at "+m.At.In(loc).Format("15:04")) {
-			t.Errorf("stage %s: pre-stage meal missing:\n%s", n, box)
+		feeds := section(page, `id="feeds"`)
+		if m := st.PreEventMeal; m != nil {
+			// The box says when; the list of feeds gives the grams, once.
+			at := m.At.In(loc).Format("15:04")
+			if !strings.Contains(box, "your pre-stage meal at "+at) {
+				t.Errorf("stage %s: pre-stage meal time missing:\n%s", n, box)
+			}
+			if strings.Contains(box, web.Num(m.ChoG, 0)+" g carbohydrate at") {
+				t.Errorf("stage %s: the pre-stage meal's grams are in the box as well as in the list:\n%s", n, box)
+			}
+			if !strings.Contains(feeds, `<span class="time">`+at+`</span>`) {
+				t.Errorf("stage %s: the pre-stage meal at %s is not among the feeding times", n, at)
+			}
 		}
 		if g := st.DuringEvent.ChoGPerH; g > 0 {
 			if !strings.Contains(box, web.Num(g, 0)+" g carbohydrate per hour") {
@@ -153,8 +164,23 @@ func TestClientLinkStageRaceDays(t *testing.T) {
 				t.Errorf("%s: stage %d of another day shown", day.Format(time.DateOnly), j+1)
 			}
 		}
-		if st.DuringEvent.ChoGPerH > 0 && !strings.Contains(page, "During stage "+n+" (in all)") {
-			t.Errorf("stage %s: its in-stage feed is not named", n)
+		// The in-stage feed is shown once: in the stage's box, with its
+		// rate, total and food idea, and not again as a feed in the list
+		// (an athlete reading the same total twice may eat it twice).
+		if st.DuringEvent.ChoGPerH > 0 {
+			key := stageFeedKey(t, plan, st)
+			if !strings.Contains(box, `data-feed="`+key+`"`) || !strings.Contains(box, "For example, during the stage: ") {
+				t.Errorf("stage %s: the box lacks its feed's food idea:\n%s", n, box)
+			}
+			if c := strings.Count(page, `data-feed="`+key+`"`); c != 1 {
+				t.Errorf("stage %s: its in-stage feed shown %d times, want once", n, c)
+			}
+			if total := web.Num(st.DuringEvent.TotalChoG, 0) + " g"; strings.Count(page, "("+total+" over ") != 1 {
+				t.Errorf("stage %s: the in-stage total %s is not shown exactly once", n, total)
+			}
+			if strings.Contains(page, "(in all)") {
+				t.Errorf("stage %s: an in-event feed is still listed as a feed \"(in all)\"", n)
+			}
 		}
 	}
 	// The calendar has an entry per stage.
@@ -169,6 +195,20 @@ func TestClientLinkStageRaceDays(t *testing.T) {
 	if stages != len(plan.Stages) {
 		t.Errorf("calendar has %d stage entries, the race %d stages", stages, len(plan.Stages))
 	}
+}
+
+// stageFeedKey is the stored food plan key of stage st's in-stage feed.
+func stageFeedKey(t *testing.T, plan fuel.Plan, st fuel.StagePlan) string {
+	t.Helper()
+	for _, d := range plan.Days {
+		for i, f := range d.Feeds {
+			if f.Label == "during event" && f.At.Equal(st.StartsAt) {
+				return menu.FeedKey("day", d.Date, i)
+			}
+		}
+	}
+	t.Fatalf("no in-stage feed at %s", st.StartsAt)
+	return ""
 }
 
 // A day inside a 48 h race shows the race's blocks of hours of that day,
@@ -287,5 +327,13 @@ func TestClientLinkLegs(t *testing.T) {
 	want := web.Num(plan.DuringEvent.TotalChoG, 0) + " g carbohydrate</strong> on the legs where you can eat"
 	if !strings.Contains(box, want) || strings.Contains(box, "per hour") {
 		t.Errorf("event box does not give the legs' total %q without a whole-race rate:\n%s", want, box)
+	}
+	// The race's in-event feed is the box's, with its food idea, and is not
+	// listed again among the feeding times.
+	if !strings.Contains(box, "For example, during the event: ") {
+		t.Errorf("event box lacks the in-event food idea:\n%s", box)
+	}
+	if feeds := section(page, `id="feeds"`); strings.Contains(feeds, "(in all)") || strings.Contains(feeds, web.Num(plan.DuringEvent.TotalChoG, 0)+" g carbohydrate") {
+		t.Errorf("the in-event total is listed again among the feeds:\n%s", feeds)
 	}
 }
