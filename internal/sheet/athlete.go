@@ -55,7 +55,7 @@ func (d *doc) athleteBody() {
 	d.font("B", 15)
 	d.color(colInk)
 	f.SetX(marginX)
-	f.MultiCell(d.w, 6.5, d.tr(s.Title), "", "L", false)
+	d.multi(d.w, 6.5, s.Title, "L")
 	sub := "For " + s.ClientName
 	if s.KindLabel != "" {
 		sub += " · " + s.KindLabel
@@ -121,12 +121,12 @@ func (d *doc) box(title string, paras []string, edge, bg rgb) {
 	f.SetXY(x+4, y+1)
 	d.font("B", 10)
 	d.color(edge)
-	f.CellFormat(d.w-6, 5, d.tr(title), "", 1, "L", false, 0, "")
+	d.cell(d.w-6, 5, d.tr(title), "", 1, "L", false)
 	d.font("", 9.5)
 	d.color(colInk)
 	for _, l := range body {
 		f.SetX(x + 4)
-		f.CellFormat(d.w-8, 4.4, l, "", 1, "L", false, 0, "")
+		d.cell(d.w-8, 4.4, l, "", 1, "L", false)
 	}
 	f.SetY(y + h + 2)
 }
@@ -237,7 +237,7 @@ func (d *doc) athleteDays() {
 		d.font("B", 10)
 		d.color(colInk)
 		d.f.SetX(marginX)
-		d.f.CellFormat(d.w, 5, d.tr(dayWords(day.Date)+" · "+roleWords(day)), "", 1, "L", false, 0, "")
+		d.cell(d.w, 5, d.tr(dayWords(day.Date)+" · "+roleWords(day)), "", 1, "L", false)
 		training := d.s.Training[day.Date]
 		switch {
 		case training != "":
@@ -292,12 +292,12 @@ func (d *doc) athleteDays() {
 			d.font("B", 8.6)
 			d.color(colNote)
 			d.f.SetXY(marginX, y)
-			d.f.CellFormat(30, 4.1, d.tr("Your dietitian:"), "", 0, "L", false, 0, "")
+			d.cell(30, 4.1, d.tr("Your dietitian:"), "", 0, "L", false)
 			d.font("", 9)
 			d.color(colInk)
 			for i, l := range lines {
 				d.f.SetXY(marginX+30, y+float64(i)*4.1)
-				d.f.CellFormat(d.w-30, 4.1, l, "", 0, "L", false, 0, "")
+				d.cell(d.w-30, 4.1, l, "", 0, "L", false)
 			}
 			d.f.SetY(y + float64(len(lines))*4.1 + 0.6)
 		}

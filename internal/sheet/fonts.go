@@ -71,12 +71,13 @@ var symbols = strings.NewReplacer(
 // printable makes typed text safe to print: valid UTF-8 in composed form
 // (a letter typed as base and combining accent becomes the one composed
 // letter the font draws), no control characters but line breaks, and every
-// letter the font has no glyph for (Chinese, Japanese, emoji) as "?", so
-// that nothing is dropped silently or drawn as an empty box.
+// letter that neither the font nor a fallback face (fallback.go: Chinese,
+// Japanese, Korean) has a glyph for, such as an emoji, as "?", so that
+// nothing is dropped silently or drawn as an empty box.
 func printable(x string) string {
 	x = norm.NFC.String(symbols.Replace(clean(x)))
 	return strings.Map(func(r rune) rune {
-		if r == '\n' || r == ' ' || hasGlyph(r) {
+		if r == '\n' || r == ' ' || faceFor(r) >= 0 {
 			return r
 		}
 		if unicode.Is(unicode.Mn, r) { // a stray combining mark: drop it

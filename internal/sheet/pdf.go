@@ -159,6 +159,11 @@ type doc struct {
 	limit float64 // lowest y content may reach
 	// headPage is the page whose feed table heads are printed.
 	headPage int
+	// style and size are the current font's (fpdf does not tell them);
+	// added holds the fallback faces registered with this sheet.
+	style string
+	size  float64
+	added map[int]bool
 }
 
 func newDoc(s Sheet, paper Paper) (*doc, error) {
@@ -237,13 +242,18 @@ func (d *doc) color(c rgb) { d.f.SetTextColor(c.r, c.g, c.b) }
 func (d *doc) fill(c rgb)  { d.f.SetFillColor(c.r, c.g, c.b) }
 func (d *doc) draw(c rgb)  { d.f.SetDrawColor(c.r, c.g, c.b) }
 func (d *doc) font(style string, size float64) {
+	d.style, d.size = style, size
 	d.f.SetFont(fontFamily, style, size)
 }
 
 // lines splits text (in the current font) to fit width w.
 func (d *doc) lines(text string, w float64) []string {
 	var out []string
-	out = d.f.SplitText(d.tr(text), w)
+	if t := d.tr(text); plain(t) {
+		out = d.f.SplitText(t, w)
+	} else {
+		out = d.wrap(t, w)
+	}
 	if len(out) == 0 {
 		out = []string{""}
 	}
@@ -253,7 +263,7 @@ func (d *doc) lines(text string, w float64) []string {
 // para prints wrapped text across the content width.
 func (d *doc) para(text string, h float64) {
 	d.f.SetX(marginX)
-	d.f.MultiCell(d.w, h, d.tr(text), "", "L", false)
+	d.multi(d.w, h, text, "L")
 }
 
 // need starts a new page unless h mm fit below the current position.
@@ -273,7 +283,7 @@ func (d *doc) heading(text string, keep float64) {
 	d.font("B", 11)
 	d.color(colInk)
 	d.f.SetX(marginX)
-	d.f.CellFormat(d.w, 6, d.tr(text), "", 1, "L", false, 0, "")
+	d.cell(d.w, 6, d.tr(text), "", 1, "L", false)
 	d.draw(colRule)
 	d.f.SetLineWidth(0.3)
 	y := d.f.GetY()

@@ -34,14 +34,14 @@ func (d *doc) header() {
 	d.font("B", 9.5)
 	d.color(colInk)
 	f.SetX(marginX)
-	f.CellFormat(d.w/2, 5, d.tr(d.s.PracticeName), "", 0, "L", false, 0, "")
+	d.cell(d.w/2, 5, d.tr(d.s.PracticeName), "", 0, "L", false)
 	d.font("", 8.5)
 	d.color(colMuted)
 	right := d.formName() + " · printed " + d.s.Printed.In(d.loc).Format("2 Jan 2006")
 	if f.PageNo() > 1 {
 		right = d.s.ClientName + " · " + d.s.Title + " (continued)"
 	}
-	f.CellFormat(d.w/2, 5, d.tr(right), "", 1, "R", false, 0, "")
+	d.cell(d.w/2, 5, d.tr(right), "", 1, "R", false)
 	d.draw(colInk)
 	f.SetLineWidth(0.4)
 	f.Line(marginX, f.GetY()+0.5, pw-marginX, f.GetY()+0.5)
@@ -55,7 +55,7 @@ func (d *doc) header() {
 			msg = SupersededMark + ": a later version of this plan has replaced it."
 		}
 		f.SetX(marginX)
-		f.CellFormat(d.w, 5.5, d.tr(msg), "", 1, "C", true, 0, "")
+		d.cell(d.w, 5.5, d.tr(msg), "", 1, "C", true)
 		f.Ln(1.5)
 	}
 	d.color(colInk)
@@ -85,15 +85,15 @@ func (d *doc) footer() {
 	}
 	d.font("B", 7.2)
 	d.color(colInk)
-	f.CellFormat(12, 3.2, "Safety:", "", 0, "L", false, 0, "")
+	d.cell(12, 3.2, "Safety:", "", 0, "L", false)
 	d.font("", 7.2)
-	f.MultiCell(d.w-12, 3.2, d.tr(caution), "", "L", false)
+	d.multi(d.w-12, 3.2, caution, "L")
 	d.font("", 7.5)
 	d.color(colMuted)
 	f.SetXY(marginX, ph-7)
 	left := d.s.ClientName + " · " + d.s.Title + " · version " + strconv.Itoa(d.s.Version)
-	f.CellFormat(d.w*0.75, 4, d.tr(left), "", 0, "L", false, 0, "")
-	f.CellFormat(d.w*0.25, 4, fmt.Sprintf("page %d of {nb}", f.PageNo()), "", 0, "R", false, 0, "")
+	d.cell(d.w*0.75, 4, d.tr(left), "", 0, "L", false)
+	d.cell(d.w*0.25, 4, fmt.Sprintf("page %d of {nb}", f.PageNo()), "", 0, "R", false)
 	d.color(colInk)
 }
 
@@ -104,7 +104,7 @@ func (d *doc) body() {
 	d.font("B", 15)
 	d.color(colInk)
 	f.SetX(marginX)
-	f.MultiCell(d.w, 6.5, d.tr(d.s.Title), "", "L", false)
+	d.multi(d.w, 6.5, d.s.Title, "L")
 	f.Ln(0.5)
 	d.cautions()
 	d.facts()
@@ -141,12 +141,12 @@ func (d *doc) cautions() {
 	f.SetXY(x+7.5, y+1)
 	d.font("B", 10)
 	d.color(colCaution)
-	f.CellFormat(d.w-9, 5, d.tr("Recorded caution for "+d.s.ClientName+" – read before using this plan"), "", 1, "L", false, 0, "")
+	d.cell(d.w-9, 5, d.tr("Recorded caution for "+d.s.ClientName+" – read before using this plan"), "", 1, "L", false)
 	d.font("", 9.5)
 	d.color(colInk)
 	for _, l := range body {
 		f.SetX(x + 4)
-		f.CellFormat(d.w-6, 4.4, l, "", 1, "L", false, 0, "")
+		d.cell(d.w-6, 4.4, l, "", 1, "L", false)
 	}
 	f.SetY(y + h + 1.5)
 }
@@ -220,12 +220,12 @@ func (d *doc) pairColumns(left, right []pair) {
 			f.SetXY(x, y)
 			d.font("", 8.5)
 			d.color(colMuted)
-			f.CellFormat(keyW, 4.4, d.tr(p.k), "", 0, "L", false, 0, "")
+			d.cell(keyW, 4.4, d.tr(p.k), "", 0, "L", false)
 			d.font("", 9.5)
 			d.color(colInk)
 			for j, l := range vl {
 				f.SetXY(x+keyW, y+float64(j)*4.4)
-				f.CellFormat(colW-keyW, 4.4, l, "", 0, "L", false, 0, "")
+				d.cell(colW-keyW, 4.4, l, "", 0, "L", false)
 			}
 			y += float64(len(vl)) * 4.4
 		}

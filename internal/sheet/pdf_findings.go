@@ -45,18 +45,18 @@ func (d *doc) findings() {
 		d.font("B", 8.6)
 		d.color(c)
 		f.SetXY(marginX+4.5, y)
-		f.CellFormat(28, 3.8, d.tr(levelWord(fd.Level)), "", 0, "L", false, 0, "")
+		d.cell(28, 3.8, d.tr(levelWord(fd.Level)), "", 0, "L", false)
 		d.font("", 8.6)
 		d.color(colInk)
 		for i, l := range ml {
 			f.SetXY(textX, y+float64(i)*3.8)
-			f.CellFormat(textW, 3.8, l, "", 0, "L", false, 0, "")
+			d.cell(textW, 3.8, l, "", 0, "L", false)
 		}
 		d.font("", 7.2)
 		d.color(colMuted)
 		for i, l := range sl {
 			f.SetXY(textX, y+float64(len(ml))*3.8+float64(i)*3.2)
-			f.CellFormat(textW, 3.2, l, "", 0, "L", false, 0, "")
+			d.cell(textW, 3.2, l, "", 0, "L", false)
 		}
 		d.color(colInk)
 		f.SetY(y + h)
@@ -74,7 +74,7 @@ func (d *doc) findings() {
 	if len(shown) == 0 {
 		msg += " No finding needs attention."
 	}
-	f.CellFormat(d.w-4.5, 4, d.tr(msg), "", 1, "L", false, 0, "")
+	d.cell(d.w-4.5, 4, d.tr(msg), "", 1, "L", false)
 	d.color(colInk)
 }
 

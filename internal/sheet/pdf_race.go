@@ -196,7 +196,7 @@ func (d *doc) table(cols []column, rows [][]string) {
 		x := marginX
 		for _, c := range cols {
 			f.SetXY(x, y)
-			f.CellFormat(c.w, 3.8, d.tr(c.title), "", 0, c.align, false, 0, "")
+			d.cell(c.w, 3.8, d.tr(c.title), "", 0, c.align, false)
 			x += c.w
 		}
 		d.draw(colInk)
@@ -227,7 +227,7 @@ func (d *doc) table(cols []column, rows [][]string) {
 			}
 			for j, l := range cells[i] {
 				f.SetXY(x, y+0.7+float64(j)*3.7)
-				f.CellFormat(c.w-1.2, 3.7, l, "", 0, c.align, false, 0, "")
+				d.cell(c.w-1.2, 3.7, l, "", 0, c.align, false)
 			}
 			x += c.w
 		}

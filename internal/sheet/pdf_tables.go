@@ -49,10 +49,10 @@ func (d *doc) dayTable() {
 					w, align = c.w+cols[i+1].w, "C"
 				}
 				d.f.SetXY(x, y)
-				d.f.CellFormat(w, 3.4, d.tr(c.group), "", 0, align, false, 0, "")
+				d.cell(w, 3.4, d.tr(c.group), "", 0, align, false)
 			}
 			d.f.SetXY(x, y+3.4)
-			d.f.CellFormat(c.w, 3.4, d.tr(c.title), "", 0, c.align, false, 0, "")
+			d.cell(c.w, 3.4, d.tr(c.title), "", 0, c.align, false)
 			x += c.w
 		}
 		d.draw(colInk)
@@ -130,7 +130,7 @@ func (d *doc) dayTable() {
 				if i != 1 {
 					text = d.tr(l)
 				}
-				d.f.CellFormat(c.w, 3.8, text, "", 0, c.align, false, 0, "")
+				d.cell(c.w, 3.8, text, "", 0, c.align, false)
 			}
 			x += c.w
 		}
@@ -235,11 +235,11 @@ func (d *doc) pairRows(rows []pair, keyW float64) {
 		d.font("B", 8.5)
 		d.color(colInk)
 		f.SetXY(marginX, y)
-		f.CellFormat(keyW, 4.1, d.tr(r.k), "", 0, "L", false, 0, "")
+		d.cell(keyW, 4.1, d.tr(r.k), "", 0, "L", false)
 		d.font("", 9)
 		for i, l := range vl {
 			f.SetXY(marginX+keyW, y+float64(i)*4.1)
-			f.CellFormat(d.w-keyW, 4.1, l, "", 0, "L", false, 0, "")
+			d.cell(d.w-keyW, 4.1, l, "", 0, "L", false)
 		}
 		f.SetY(y + h + 1)
 	}
@@ -328,12 +328,12 @@ func (d *doc) feedTable(rows []feedRow, timeW float64) {
 		d.color(colMuted)
 		y := f.GetY()
 		f.SetXY(marginX, y)
-		f.CellFormat(timeW, 3.6, "Time", "", 0, "L", false, 0, "")
-		f.CellFormat(labelW, 3.6, "Occasion", "", 0, "L", false, 0, "")
-		f.CellFormat(choW, 3.6, "Carbohydrate g", "", 0, "R", false, 0, "")
-		f.CellFormat(protW, 3.6, "Protein g", "", 0, "R", false, 0, "")
+		d.cell(timeW, 3.6, "Time", "", 0, "L", false)
+		d.cell(labelW, 3.6, "Occasion", "", 0, "L", false)
+		d.cell(choW, 3.6, "Carbohydrate g", "", 0, "R", false)
+		d.cell(protW, 3.6, "Protein g", "", 0, "R", false)
 		f.SetX(sugX)
-		f.CellFormat(sugW, 3.6, "Food suggestion", "", 1, "L", false, 0, "")
+		d.cell(sugW, 3.6, "Food suggestion", "", 1, "L", false)
 		d.color(colInk)
 	}
 	head()
@@ -350,23 +350,23 @@ func (d *doc) feedTable(rows []feedRow, timeW float64) {
 		y := f.GetY()
 		d.font("", 8.5)
 		f.SetXY(marginX, y)
-		f.CellFormat(timeW, 3.6, d.tr(r.at), "", 0, "L", false, 0, "")
-		f.CellFormat(labelW, 3.6, d.tr(r.label), "", 0, "L", false, 0, "")
+		d.cell(timeW, 3.6, d.tr(r.at), "", 0, "L", false)
+		d.cell(labelW, 3.6, d.tr(r.label), "", 0, "L", false)
 		cho := num(r.cho, 0)
 		if r.overridden {
 			cho += " *"
 		}
-		f.CellFormat(choW, 3.6, cho, "", 0, "R", false, 0, "")
+		d.cell(choW, 3.6, cho, "", 0, "R", false)
 		prot := "–"
 		if r.prot > 0 {
 			prot = num(r.prot, 0)
 		}
-		f.CellFormat(protW, 3.6, d.tr(prot), "", 0, "R", false, 0, "")
+		d.cell(protW, 3.6, d.tr(prot), "", 0, "R", false)
 		d.font("", 7.6)
 		d.color(colMuted)
 		for i, l := range sl {
 			f.SetXY(sugX, y+float64(i)*3.4+0.2)
-			f.CellFormat(sugW, 3.4, l, "", 0, "L", false, 0, "")
+			d.cell(sugW, 3.4, l, "", 0, "L", false)
 		}
 		d.color(colInk)
 		f.SetY(y + h)
@@ -409,7 +409,7 @@ func (d *doc) feeds() {
 		d.f.Ln(1)
 		d.font("B", 8.8)
 		d.f.SetX(marginX)
-		d.f.CellFormat(d.w, 4.6, d.tr(title), "", 1, "L", false, 0, "")
+		d.cell(d.w, 4.6, d.tr(title), "", 1, "L", false)
 		d.feedTable(rows, 12)
 		// Advice the day before already gave (the second of two load days)
 		// is not printed again: the days sit one under the other.

@@ -224,8 +224,9 @@ func TestTextOutsideTheFont(t *testing.T) {
 		"Łukasz Żółć-Nguyễn":  "Łukasz Żółć-Nguyễn",
 		"Ψ Дарья":             "Ψ Дарья",
 		"non\u2011breaking ✓": "non-breaking ",
-		// Letters it lacks are marked, not dropped or drawn as empty boxes.
-		"李 🙂":       "? ?",
+		// Chinese, Japanese and Korean print in a fallback face; a letter
+		// no face has is marked, not dropped or drawn as an empty box.
+		"李 さくら 김 🙂": "李 さくら 김 ?",
 		"a\tb\x00c": "a bc",
 	}
 	for in, want := range cases {
@@ -262,6 +263,46 @@ func TestUnicodeNames(t *testing.T) {
 	}
 	if strings.Contains(text, "?") {
 		t.Errorf("a letter printed as \"?\":\n%s", text)
+	}
+}
+
+// A name in Chinese, Japanese or Korean letters prints as typed, in the
+// fallback faces, beside the sheet's own font in the same line; a long
+// caution in Chinese wraps between its letters.
+func TestCJKNames(t *testing.T) {
+	req, plan := example(t, "marathon-loading.json")
+	s := sheetFor(req, plan, StatusPublished)
+	s.ClientName = "王芳 (Wang Fang)"
+	s.ClientCautions = []string{"乳糖不耐受：不喝牛奶，不吃乳制品。比赛前一天选择低纤维食物，比赛当天早餐清淡，赛中只用训练中试过的能量胶和运动饮料。", "さくら 김민준"}
+	s.Title = "马拉松碳水化合物负荷计划"
+	for _, form := range []Form{FormStaff, FormAthlete} {
+		s.Form = form
+		pdf, err := Render(s, A4)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if dir := os.Getenv("LARDER_SHEET_OUT"); dir != "" { // to look at it
+			_ = os.WriteFile(filepath.Join(dir, "cjk-names-"+string(form)+".pdf"), pdf, 0o644)
+		}
+		text, ok := sheettest.Text(t, pdf)
+		if !ok {
+			t.Skip("pdftotext not installed")
+		}
+		flat := strings.Join(strings.Fields(text), "")
+		for _, w := range []string{"王芳 (Wang Fang)", "马拉松碳水化合物负荷计划", "さくら 김민준"} {
+			if form == FormAthlete && w == "さくら 김민준" {
+				continue // recorded cautions never reach the athlete's form
+			}
+			if !strings.Contains(text, w) {
+				t.Errorf("%s form: text lacks %q\n%s", form, w, text)
+			}
+		}
+		if form == FormStaff && !strings.Contains(flat, strings.Join(strings.Fields(s.ClientCautions[0]), "")) {
+			t.Errorf("the Chinese caution is not printed whole:\n%s", text)
+		}
+		if strings.Contains(text, "?") {
+			t.Errorf("%s form: a letter printed as \"?\":\n%s", form, text)
+		}
 	}
 }
 
@@ -323,4 +364,17 @@ func FuzzSheetText(f *testing.F) {
 			t.Fatalf("%d pages", n)
 		}
 	})
+}
+
+// BenchmarkCJKSheet is the cost of a sheet that needs the fallback faces
+// (a client's name in Chinese): the faces' parse and subset.
+func BenchmarkCJKSheet(b *testing.B) {
+	req, plan := example(b, "marathon-loading.json")
+	s := sheetFor(req, plan, StatusPublished)
+	s.ClientName = "王芳"
+	for b.Loop() {
+		if _, err := Render(s, A4); err != nil {
+			b.Fatal(err)
+		}
+	}
 }
