@@ -21,6 +21,8 @@ func TestBrowserClientsListFitsAPhone(t *testing.T) {
 		chromedp.SendKeys(chromedp.ID("f-email"), demo.Email),
 		chromedp.SendKeys(chromedp.ID("f-password"), res.Password),
 		chromedp.Submit(chromedp.ID("f-password")),
+		chromedp.WaitVisible(chromedp.CSS("details.navmenu > summary")),
+		chromedp.Navigate(a.srv.URL+"/clients"),
 		chromedp.WaitVisible(chromedp.CSS(`table.data`)),
 	)
 	if err != nil {
