@@ -199,19 +199,35 @@ func (s *Server) clientDayPage(w http.ResponseWriter, r *http.Request) {
 		return
 	}
 	now := s.Now()
+	w.Header().Set("Content-Type", "text/html; charset=utf-8")
+	key := phonePageKey(r.URL.Path, o, plans, now)
+	if body, ok := s.phonePages.Get(key); ok {
+		writeBody(w, body)
+		return
+	}
+	body, err := renderPage(renderCtx(r), web.ClientDayPage(clientDayView(r.URL.Path, o, plans, now)))
+	if err != nil {
+		s.Log.Error("render", "path", "/c/…", "err", err)
+		http.Error(w, "Something went wrong on our side. Please try again.", http.StatusInternalServerError)
+		return
+	}
+	s.phonePages.Add(key, body)
+	writeBody(w, body)
+}
+
+// clientDayView builds the phone page of the link at path on the day of
+// now. What it reads is exactly what phonePageKey names: keep them alike.
+func clientDayView(path string, o store.LinkOpen, plans []linkPlan, now time.Time) web.ClientDayView {
 	v := web.ClientDayView{
 		PracticeName: o.PracticeName, FirstName: firstName(o.ClientName), Caution: fuel.Caution,
-		Notes: splitCautions(o.SharedNote), ShowFigures: o.ShowFigures, MassUnit: o.MassUnit, CalendarURL: r.URL.Path + "/plan.ics",
-		SheetURL:  r.URL.Path + "/sheet.pdf",
+		Notes: splitCautions(o.SharedNote), ShowFigures: o.ShowFigures, MassUnit: o.MassUnit, CalendarURL: path + "/plan.ics",
+		SheetURL:  path + "/sheet.pdf",
 		DateLabel: now.UTC().Format("Monday 2 January 2006"),
 	}
 	if p, today, ok := currentPlan(plans, now); ok {
 		fillDay(&v, p, today, now)
 	}
-	w.Header().Set("Content-Type", "text/html; charset=utf-8")
-	if err := writePage(renderCtx(r), w, http.StatusOK, web.ClientDayPage(v)); err != nil {
-		s.Log.Error("render", "path", "/c/…", "err", err)
-	}
+	return v
 }
 
 // fillDay puts today's part of plan p, and its coming days, into v. Every

@@ -48,6 +48,8 @@ type Server struct {
 	sessionNow func() time.Time
 	// calendars keeps built client calendar feeds by calendarKey.
 	calendars *lru.Cache[string, []byte]
+	// phonePages keeps rendered phone pages by phonePageKey.
+	phonePages *lru.Cache[string, []byte]
 	// charts keeps drawn charts by a hash of their input (see drawn).
 	charts *chartCache
 
@@ -73,6 +75,7 @@ func New(cfg Config) *Server {
 		Now:        now,
 		sessionNow: time.Now,
 		calendars:  newCalendarCache(),
+		phonePages: newPhonePageCache(),
 		charts:     newChartCache(),
 
 		secureCookies:  cfg.SecureCookies,

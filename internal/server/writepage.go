@@ -38,3 +38,26 @@ func writePage(ctx context.Context, w http.ResponseWriter, status int, c templ.C
 	_, err := w.Write(buf.Bytes())
 	return err
 }
+
+// renderPage renders c whole into a byte slice of its own, for a page kept
+// after this response (a pooled buffer would be reused under it).
+func renderPage(ctx context.Context, c templ.Component) ([]byte, error) {
+	buf := pageBuffers.Get().(*bytes.Buffer)
+	buf.Reset()
+	defer func() {
+		if buf.Cap() <= maxPooledPage {
+			pageBuffers.Put(buf)
+		}
+	}()
+	if err := c.Render(ctx, buf); err != nil {
+		return nil, err
+	}
+	return bytes.Clone(buf.Bytes()), nil
+}
+
+// writeBody sends a rendered page with its length and status 200.
+func writeBody(w http.ResponseWriter, body []byte) {
+	w.Header().Set("Content-Length", strconv.Itoa(len(body)))
+	w.WriteHeader(http.StatusOK)
+	_, _ = w.Write(body)
+}
