@@ -18,6 +18,10 @@ type SessionOptions struct {
 	// CleanupInterval is how often expired sessions are deleted; 0 means
 	// every 5 minutes, a negative value never (tests).
 	CleanupInterval time.Duration
+	// Find, when set, reads a session's data by its token in place of the
+	// store's own query (the server reads the session's user with it); nil
+	// means the plain query.
+	Find func(ctx context.Context, token string) (data []byte, found bool, err error)
 }
 
 // Session keys.
@@ -60,7 +64,7 @@ func NewSessionManager(pool *pgxpool.Pool, opt SessionOptions) *scs.SessionManag
 	default:
 		ps = pgxstore.NewWithCleanupInterval(pool, opt.CleanupInterval)
 	}
-	m.Store = sessionStore{PostgresStore: ps, pool: pool}
+	m.Store = sessionStore{PostgresStore: ps, pool: pool, find: opt.Find}
 	m.Codec = codec{}
 	m.Lifetime = SessionLifetime
 	m.Cookie.Name = "larder_session"

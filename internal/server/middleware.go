@@ -21,7 +21,37 @@ const (
 	userKey ctxKey = iota
 	// practiceKey holds the practice's name read with the signed-in user.
 	practiceKey
+	// signInKey holds the *signInFound that findSession fills.
+	signInKey
 )
+
+// signInFound is what findSession read with the request's session: the
+// user it signs in, read in the same query (see store.SessionWithUser).
+type signInFound struct {
+	ok bool
+	in store.SignIn
+}
+
+// findSession is the session manager's find: the session's data and, into
+// the request's signInFound (put there by session), its user.
+func findSession(st *store.Store) func(ctx context.Context, token string) ([]byte, bool, error) {
+	return func(ctx context.Context, token string) ([]byte, bool, error) {
+		data, found, in, err := st.SessionWithUser(ctx, token)
+		if f, ok := ctx.Value(signInKey).(*signInFound); ok && found && err == nil {
+			*f = signInFound{ok: true, in: in}
+		}
+		return data, found, err
+	}
+}
+
+// session loads the request's session (scs) and its signed-in user
+// (loadUser), both from one query when the session's row names its user.
+func (s *Server) session(next http.Handler) http.Handler {
+	h := s.Sessions.LoadAndSave(s.loadUser(next))
+	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		h.ServeHTTP(w, r.WithContext(context.WithValue(r.Context(), signInKey, &signInFound{})))
+	})
+}
 
 // CurrentUser returns the signed-in user, or nil on public pages.
 func CurrentUser(r *http.Request) *store.User {
@@ -80,8 +110,9 @@ func (s *Server) timeLimit(next http.Handler) http.Handler {
 
 // loadUser puts the signed-in user (if any) into the request context,
 // after keeping the session's idle limit (auth.Touch). The user and the
-// session's row are read from the database on every request, so a disabled
-// account, a changed role or an ended session takes effect at once.
+// session's row are read from the database on every request (with the
+// session itself, see session), so a disabled account, a changed role or an
+// ended session takes effect at once.
 func (s *Server) loadUser(next http.Handler) http.Handler {
 	return http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		id := s.Sessions.GetInt64(r.Context(), auth.KeyUserID)
@@ -99,7 +130,22 @@ func (s *Server) loadUser(next http.Handler) http.Handler {
 		}
 		// The session's own row must still exist: a password change, a reset
 		// or "End" on the account page removes it, and with it this sign-in.
-		u, practice, err := s.Store.SessionUser(r.Context(), id, s.Sessions.GetInt64(r.Context(), auth.KeySessionID))
+		// It and the user were read with the session when the session's row
+		// names the same ones as its data; otherwise (a row saved before it
+		// named them) they are read now.
+		sid := s.Sessions.GetInt64(r.Context(), auth.KeySessionID)
+		var (
+			u        store.User
+			practice string
+			err      error
+		)
+		if f, _ := r.Context().Value(signInKey).(*signInFound); f != nil && f.ok && f.in.UserID == id && f.in.SessionID == sid {
+			if u, practice = f.in.User, f.in.Practice; !f.in.Live {
+				err = store.ErrNotFound
+			}
+		} else {
+			u, practice, err = s.Store.SessionUser(r.Context(), id, sid)
+		}
 		switch {
 		case errors.Is(err, store.ErrNotFound) || (err == nil && u.Disabled):
 			_ = s.Sessions.Destroy(r.Context())

@@ -19,14 +19,14 @@ func (s *Server) routes() http.Handler {
 
 	static, _ := fs.Sub(web.Static, "static")
 	r.Handle("/static/*", http.StripPrefix("/static/", noListing(static, http.FileServerFS(static))))
-	r.With(s.Sessions.LoadAndSave, s.loadUser).Get("/healthz", s.healthz)
-	r.With(s.Sessions.LoadAndSave, s.loadUser).Head("/healthz", s.healthz)
+	r.With(s.session).Get("/healthz", s.healthz)
+	r.With(s.session).Head("/healthz", s.healthz)
 	s.mountClientLinkRoutes(r) // public: the token in the URL is the only key
-	r.NotFound(s.Sessions.LoadAndSave(s.loadUser(http.HandlerFunc(s.NotFound))).ServeHTTP)
-	r.MethodNotAllowed(s.Sessions.LoadAndSave(s.loadUser(http.HandlerFunc(s.MethodNotAllowed))).ServeHTTP)
+	r.NotFound(s.session(http.HandlerFunc(s.NotFound)).ServeHTTP)
+	r.MethodNotAllowed(s.session(http.HandlerFunc(s.MethodNotAllowed)).ServeHTTP)
 
 	r.Group(func(r chi.Router) {
-		r.Use(s.Sessions.LoadAndSave, s.loadUser)
+		r.Use(s.session)
 
 		r.Get("/signin", s.signInPage)
 		r.Post("/signin", s.signIn)

@@ -69,8 +69,9 @@ func New(cfg Config) *Server {
 		now = time.Now
 	}
 	s := &Server{
-		Store:      cfg.Store,
-		Sessions:   auth.NewSessionManager(cfg.Store.Pool, auth.SessionOptions{Secure: cfg.SecureCookies, CleanupInterval: cfg.SessionCleanup}),
+		Store: cfg.Store,
+		Sessions: auth.NewSessionManager(cfg.Store.Pool, auth.SessionOptions{Secure: cfg.SecureCookies, CleanupInterval: cfg.SessionCleanup,
+			Find: findSession(cfg.Store)}),
 		Log:        log,
 		Now:        now,
 		sessionNow: time.Now,
