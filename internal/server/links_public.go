@@ -226,12 +226,13 @@ func clientDayView(path string, o store.LinkOpen, plans []linkPlan, now time.Tim
 	}
 	if p, today, ok := currentPlan(plans, now); ok {
 		fillDay(&v, p, today, now)
+		v.Next = daysAhead(plans, today)
 	}
 	return v
 }
 
-// fillDay puts today's part of plan p, and its coming days, into v. Every
-// figure is the stored plan's, only formatted.
+// fillDay puts today's part of plan p into v (its coming days come from
+// daysAhead). Every figure is the stored plan's, only formatted.
 func fillDay(v *web.ClientDayView, p linkPlan, today string, now time.Time) {
 	plan := p.Version.Result
 	if plan.Caution != "" {
@@ -250,19 +251,43 @@ func fillDay(v *web.ClientDayView, p linkPlan, today string, now time.Time) {
 		v.MassGain = mass.Difference(*g, hi, v.MassUnit)
 	}
 	for _, d := range plan.Days {
-		switch {
-		case d.Date == today:
+		if d.Date == today {
 			v.Today = todayView(p, d)
 			v.Today.Note = noteLines(p.Version.Notes.Day(d.Date))
-		case d.Date > today && len(v.Next) < nextDaysShown:
-			v.Next = append(v.Next, web.ClientDayBrief{DateLabel: dayWords(d.Date), Role: clientRoleWords(d),
-				ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1), Event: d.Role == "event",
-				Note: strings.TrimSpace(p.Version.Notes.Day(d.Date))})
 		}
 	}
 	if v.Today == nil && p.first > today {
 		v.Upcoming = "Your plan starts on " + longDay(p.first) + "."
 	}
+}
+
+// daysAhead lists the coming days after today, each from the plan that
+// owns it (dayOwners: the one published last of those covering it), so
+// that a race-day plan made after a loading plan gives its own figures and
+// notes for race day here as in the calendar, before race day comes.
+func daysAhead(plans []linkPlan, today string) []web.ClientDayBrief {
+	owners := dayOwners(plans)
+	type day struct {
+		date  string
+		brief web.ClientDayBrief
+	}
+	var ahead []day
+	for _, p := range plans {
+		for _, d := range p.Version.Result.Days {
+			if d.Date <= today || owners[d.Date] != p.Plan.ID {
+				continue
+			}
+			ahead = append(ahead, day{d.Date, web.ClientDayBrief{DateLabel: dayWords(d.Date), Role: clientRoleWords(d),
+				ChoG: web.Num(d.ChoG, 0), ChoGPerKg: web.Num(d.ChoGPerKg, 1), Event: d.Role == "event",
+				Note: strings.TrimSpace(p.Version.Notes.Day(d.Date))}})
+		}
+	}
+	sort.SliceStable(ahead, func(i, j int) bool { return ahead[i].date < ahead[j].date })
+	var out []web.ClientDayBrief
+	for _, d := range ahead[:min(len(ahead), nextDaysShown)] {
+		out = append(out, d.brief)
+	}
+	return out
 }
 
 // noteLines splits a note to the athlete into its paragraphs.
