@@ -16,10 +16,10 @@ func TestPrioritiesInWordsAndModelChart(t *testing.T) {
 	c, e := sheetClient(t, a) // a goal race (priority A)
 	cid := itoa64(c.ID)
 
-	b.get("/clients/"+cid).mustContain(t, "<td>Goal race</td>")
+	b.get("/clients/"+cid).mustContain(t, ">Goal race</td>")
 	b.get("/clients/"+cid+"/events/new").mustContain(t, `<option value="A" selected>Goal race</option>`,
 		`<option value="B">Important race</option>`, `<option value="C">Training race</option>`)
-	b.get("/clients/"+cid+"/plans/new").mustContain(t, "<td>Goal race</td>")
+	b.get("/clients/"+cid+"/plans/new").mustContain(t, ">Goal race</td>")
 	res := b.post("/clients/"+cid+"/events", url.Values{"priority": {"D"}})
 	res.mustContain(t, "Choose goal race, important race or training race.")
 
