@@ -177,6 +177,11 @@ type PlanView struct {
 	GPerKgChart   []byte // SVG
 	GlycogenChart []byte
 
+	// Detail, when set, is PlanDetail already rendered for this view; the
+	// fields only PlanDetail reads (Days, charts, race day, repletion,
+	// feeds) may then be left empty.
+	Detail []byte
+
 	Versions []VersionView
 
 	Carry          []Carried         // values typed for a version that can no longer change

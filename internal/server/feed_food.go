@@ -382,22 +382,13 @@ func (s *Server) saveFeedFood(w http.ResponseWriter, r *http.Request) {
 // food choices: on a draft, each feed's link to decide its food (a feed
 // shown twice links to the day feed whose food it shows); on any version,
 // the checks of each saved choice beside its feed. choices are the
-// version's saved choices (Store.FeedChoices), read with the page.
-func (s *Server) placeFoodChoices(ctx context.Context, pv *web.PlanView, c store.Client, p store.Plan, v store.PlanVersion,
-	choices map[string][]menu.ChoiceLine) error {
-	var err error
+// version's saved choices (Store.FeedChoices), read with the page; byID the
+// active foods (foodsByID), needed only when there are choices; opts the
+// client's (menuOptions).
+func placeFoodChoices(pv *web.PlanView, c store.Client, p store.Plan, v store.PlanVersion,
+	choices map[string][]menu.ChoiceLine, byID map[int64]menu.Food, opts menu.Options) {
 	if len(choices) == 0 && v.Status != store.PlanDraft {
-		return nil
-	}
-	var byID map[int64]menu.Food
-	var opts menu.Options
-	if len(choices) > 0 {
-		if _, byID, err = s.foodsByID(ctx); err != nil {
-			return err
-		}
-		if opts, err = s.menuOptions(ctx, c); err != nil {
-			return err
-		}
+		return
 	}
 	place := func(fv *web.FeedView, f feedRef) {
 		d := foodFeed(v.Result, f)
@@ -438,7 +429,6 @@ func (s *Server) placeFoodChoices(ctx context.Context, pv *web.PlanView, c store
 			pv.PreEvent.Findings = append(pv.PreEvent.Findings, choiceChecks(lines, d, byID, opts)...)
 		}
 	}
-	return nil
 }
 
 // foodOptionLabel tells a food in the choice form's list with what its

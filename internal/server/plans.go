@@ -211,15 +211,21 @@ type planReads struct {
 	choices map[string][]menu.ChoiceLine
 }
 
-// renderPlanWith is renderPlan with what it reads already read.
+// renderPlanWith is renderPlan with what it reads already read. The
+// plan's body comes rendered from the cache when nothing it reads has
+// changed (renderDetail).
 func (s *Server) renderPlanWith(w http.ResponseWriter, r *http.Request, status int, c store.Client, p store.Plan, v store.PlanVersion,
 	versions []store.PlanVersion, f forms.Form, notice string, pr planReads) {
-	opts := menu.OptionsForClient(c.Cautions, pr.needs.Codes, pr.needs.Confirmed())
-	pv := s.planView(c, p, v, versions, pr.stored)
-	if err := s.placeFoodChoices(r.Context(), &pv, c, p, v, pr.choices); err != nil {
-		s.ServerError(w, r, err)
-		return
+	var byID map[int64]menu.Food
+	if len(pr.choices) > 0 {
+		var err error
+		if _, byID, err = s.foodsByID(r.Context()); err != nil {
+			s.ServerError(w, r, err)
+			return
+		}
 	}
+	opts := menu.OptionsForClient(c.Cautions, pr.needs.Codes, pr.needs.Confirmed())
+	pv := s.planHead(c, p, v, versions)
 	if pv.SetAside = setAsideChoices(v, pr.choices); len(pv.SetAside) > 0 && v.Status == store.PlanDraft {
 		pv.SetAsideURL = pv.ActionURL + "/set-aside-choices"
 	}
@@ -232,6 +238,11 @@ func (s *Server) renderPlanWith(w http.ResponseWriter, r *http.Request, status i
 	}
 	if pv.Editable && notice != "" {
 		pv.Theirs = differing(f, versionValues(v, c.Unit))
+	}
+	in := detailInputs{c: c, p: p, v: v, needs: pr.needs, stored: pr.stored, choices: pr.choices, byID: byID, form: f}
+	if err := s.renderDetail(r.Context(), &pv, in, notice); err != nil {
+		s.ServerError(w, r, err)
+		return
 	}
 	s.Render(w, r, status, p.Title, "clients", web.PlanPage(pv))
 }

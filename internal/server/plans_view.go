@@ -30,6 +30,16 @@ import (
 // feeds (stored): they are made when the version is created or saved, and
 // are what the client link, the calendar and the plan sheet show too.
 func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, versions []store.PlanVersion, stored map[string]string) web.PlanView {
+	pv := s.planHead(c, p, v, versions)
+	s.planDetailView(&pv, c, p, v, stored)
+	return pv
+}
+
+// planHead is the part of planView above the plan's body (PlanDetail): the
+// title, links, body figures and versions. It reads what can change on a
+// frozen version too (its status, the versions list, today's date), so it
+// is built anew for every view.
+func (s *Server) planHead(c store.Client, p store.Plan, v store.PlanVersion, versions []store.PlanVersion) web.PlanView {
 	plan := v.Result
 	loc := loadZone(plan.TimeZone)
 	pv := web.PlanView{
@@ -90,6 +100,16 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 		pv.FatFreeMass = mass.Text(plan.FatFreeMassKg, c.Unit) + " (" + plan.FatFreeMassMethod + ")"
 	}
 
+	return pv
+}
+
+// planDetailView fills what PlanDetail shows, and the plan's own findings
+// (PlanFindings, with every finding that has no place in the body). It
+// reads the version's content, the client's mass unit, the ids in its links
+// and the stored food suggestions, nothing else: planDetailKey relies on it.
+func (s *Server) planDetailView(pv *web.PlanView, c store.Client, p store.Plan, v store.PlanVersion, stored map[string]string) {
+	plan := v.Result
+	loc := loadZone(plan.TimeZone)
 	// Findings by the value they concern; any whose subject has no place on
 	// the page goes with the plan's own, so none is ever dropped.
 	bySubject := map[string][]web.FindingView{}
@@ -242,7 +262,6 @@ func (s *Server) planView(c store.Client, p store.Plan, v store.PlanVersion, ver
 			pv.PlanFindings = append(pv.PlanFindings, bySubject[subj]...)
 		}
 	}
-	return pv
 }
 
 func (s *Server) glycogenChart(curve []fuel.GlycogenPoint, start time.Time, label string, loc *time.Location) []byte {

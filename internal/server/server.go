@@ -52,6 +52,9 @@ type Server struct {
 	phonePages *lru.Cache[string, []byte]
 	// charts keeps drawn charts by a hash of their input (see drawn).
 	charts *chartCache
+	// details keeps rendered plan bodies by a hash of their input (see
+	// renderDetail).
+	details *planDetailCache
 
 	secureCookies  bool // served behind TLS: also send HSTS
 	requestTimeout time.Duration
@@ -78,6 +81,7 @@ func New(cfg Config) *Server {
 		calendars:  newCalendarCache(),
 		phonePages: newPhonePageCache(),
 		charts:     newChartCache(),
+		details:    newPlanDetailCache(planDetailCacheBytes),
 
 		secureCookies:  cfg.SecureCookies,
 		requestTimeout: cfg.RequestTimeout,
