@@ -71,10 +71,12 @@ type Need struct {
 	// Exclude lists the dietary facts (Fact* codes) of foods that must not
 	// be suggested: the client's dietary needs. Never relaxed.
 	Exclude []string
-	// ProteinG, when set, is the protein the feed is to bring (the first
-	// feed after a session carries about 0.3 g/kg): foods that bring it rank
-	// before those that bring carbohydrate alone, so the suggestion does
-	// not read as gels for a feed that asks for 25 g of protein.
+	// ProteinG, when set, is the protein the feed is to bring (a meal or
+	// the first feed after a session carries about 0.3 g/kg). From
+	// MinProteinAwareG up, outside exercise, the foods' protein must lie
+	// within ProteinTolerance of it, a protein food joining the
+	// carbohydrate foods when they fall short; a smaller target only ranks
+	// foods that bring protein first.
 	ProteinG float64
 	// Meal: a breakfast, lunch, dinner or supper, which is eaten: at least
 	// one of its foods is not a drink (a 600 ml shake read badly as a
@@ -107,6 +109,12 @@ type Suggestion struct {
 	ChoG       float64 // sum of the items' carbohydrate
 	TargetG    float64
 	ToleranceG float64 // the sum lies within TargetG ± ToleranceG
+	ProteinG   float64 // sum of the items' protein
+	// ProteinTargetG and ProteinToleranceG are set when the feed's protein
+	// was held to a margin (see MinProteinAwareG): the items' protein lies
+	// within ProteinTargetG ± ProteinToleranceG.
+	ProteinTargetG    float64
+	ProteinToleranceG float64
 }
 
 // Text is a one-line description such as "Banana: 2 × 1 medium, peeled =
@@ -195,21 +203,24 @@ func Suggest(foods []Food, need Need) (s Suggestion, ok bool) {
 	if !(need.ChoG > 0) || math.IsInf(need.ChoG, 0) {
 		return s, false
 	}
-	pool := candidates(foods, need)
-	if len(pool) == 0 {
+	if proteinAware(need) {
+		s.ProteinTargetG, s.ProteinToleranceG = need.ProteinG, ProteinTolerance(need.ProteinG)
+	}
+	foodPool := pool(foods, need)
+	if len(foodPool) == 0 {
 		return s, false
 	}
-	best, found := search(pool, need, s.ToleranceG)
+	best, found := search(foodPool, need, s.ToleranceG)
 	if !found && need.LowFibre && !need.anyFibre {
 		// Low-fibre foods alone may not reach a large target within the
 		// caps: then the whole list, with fibre still weighed in the score.
 		need.anyFibre = true
-		best, found = search(candidates(foods, need), need, s.ToleranceG)
+		best, found = search(pool(foods, need), need, s.ToleranceG)
 	}
 	if !found && len(need.Avoid) > 0 {
 		// The avoided foods may be the only ones that fit: allow them.
 		need.Avoid = nil
-		best, found = search(candidates(foods, need), need, s.ToleranceG)
+		best, found = search(pool(foods, need), need, s.ToleranceG)
 	}
 	if !found {
 		return s, false
@@ -217,8 +228,15 @@ func Suggest(foods []Food, need Need) (s Suggestion, ok bool) {
 	s.Items = best
 	for _, it := range best {
 		s.ChoG += it.ChoG
+		s.ProteinG += it.ProteinG
 	}
 	return s, true
+}
+
+// pool is the foods Suggest combines for a need: the carbohydrate foods
+// that suit it and, when its protein counts, the protein foods.
+func pool(foods []Food, need Need) []Food {
+	return withProteinFoods(candidates(foods, need), foods, need)
 }
 
 func choPerPortion(f Food) float64 { return f.PortionG * f.ChoPer100 / 100 }

@@ -363,3 +363,16 @@ func TestFirstRepletionFeedBringsProtein(t *testing.T) {
 			p, with.Text(), protein(plain), plain.Text())
 	}
 }
+
+// BenchmarkSuggestProteinMeal: a protein-aware dinner (80 g carbohydrate,
+// 30 g protein) from the starter list, where protein foods join the pool.
+func BenchmarkSuggestProteinMeal(b *testing.B) {
+	rows := loadSeed(b)
+	foods := make([]Food, len(rows))
+	for i, r := range rows {
+		foods[i] = r.Food
+	}
+	for b.Loop() {
+		Suggest(foods, Need{ChoG: 80, ProteinG: 30, Meal: true})
+	}
+}

@@ -148,7 +148,10 @@ func PlanSuggestionsDetail(plan fuel.Plan, foods []Food, opts ...Options) map[st
 			if strings.Contains(f.Label, "pre-event") {
 				needs[i].LowFibre, needs[i].DrinksG = true, preEventDrinksG
 			}
-			if strings.Contains(f.Label, "recovery") {
+			if !needs[i].OnTheMove {
+				// Every feed but the in-event one brings its protein too
+				// (see Need.ProteinG): the in-event feed is carbohydrate
+				// only.
 				needs[i].ProteinG = f.ProteinG
 			}
 			if needs[i].OnTheMove && plan.DuringEvent != nil {

@@ -61,14 +61,20 @@ func score(items []Item, need Need, tol float64) float64 {
 		}
 	}
 	if need.ProteinG > 0 {
-		// The share of the feed's protein the foods leave unmet, weighed
-		// like a full tolerance's miss of the carbohydrate (this project's
-		// own weight): a shake or milk before a third gel.
 		protein := 0.0
 		for _, it := range items {
 			protein += it.ProteinG
 		}
-		s += math.Max(0, need.ProteinG-protein) / need.ProteinG
+		if proteinAware(need) {
+			// The distance from the protein target, in parts of its
+			// tolerance, as the carbohydrate's.
+			s += math.Abs(protein-need.ProteinG) / ProteinTolerance(need.ProteinG)
+		} else {
+			// A small protein target only ranks: the share of it the
+			// foods leave unmet, weighed like a full tolerance's miss of
+			// the carbohydrate (this project's own weight).
+			s += math.Max(0, need.ProteinG-protein) / need.ProteinG
+		}
 	}
 	for _, it := range items {
 		s += 0.3 * math.Max(0, math.Ceil(it.Portions/sittings(need))-free)
@@ -91,9 +97,10 @@ func score(items []Item, need Need, tol float64) float64 {
 // fits tells whether a combination meets the target within tol and keeps
 // its drinks within the cap.
 func fits(items []Item, need Need, tol float64) bool {
-	sum, drinks, solids := 0.0, 0.0, 0
+	sum, protein, drinks, solids := 0.0, 0.0, 0.0, 0
 	for _, it := range items {
 		sum += it.ChoG
+		protein += it.ProteinG
 		if it.Food.Liquid {
 			drinks += it.Grams
 		} else {
@@ -101,6 +108,9 @@ func fits(items []Item, need Need, tol float64) bool {
 		}
 	}
 	if need.Meal && solids == 0 {
+		return false
+	}
+	if proteinAware(need) && math.Abs(protein-need.ProteinG) > ProteinTolerance(need.ProteinG)+1e-9 {
 		return false
 	}
 	return math.Abs(sum-need.ChoG) <= tol && drinks <= drinkLimit(need)+1e-9
@@ -147,10 +157,13 @@ func search(pool []Food, need Need, tol float64) ([]Item, bool) {
 				continue
 			}
 			for _, a := range amounts[i] {
-				if a.ChoG >= need.ChoG+tol {
+				if over(a, need, tol) {
 					break
 				}
-				buf[0], buf[1] = a, closest(amounts[j], need.ChoG-a.ChoG)
+				if short(a, amounts[j], need, tol) {
+					continue
+				}
+				buf[0], buf[1] = a, last(amounts[j], need, tol, a)
 				consider(buf[:2])
 			}
 		}
@@ -162,14 +175,18 @@ func search(pool []Food, need Need, tol float64) ([]Item, bool) {
 					continue
 				}
 				for _, a := range amounts[i] {
-					if a.ChoG >= need.ChoG+tol {
+					if over(a, need, tol) {
 						break
 					}
 					for _, b := range amounts[j] {
-						if a.ChoG+b.ChoG >= need.ChoG+tol {
+						ab := Item{ChoG: a.ChoG + b.ChoG, ProteinG: a.ProteinG + b.ProteinG}
+						if over(ab, need, tol) {
 							break
 						}
-						buf[0], buf[1], buf[2] = a, b, closest(amounts[k], need.ChoG-a.ChoG-b.ChoG)
+						if short(ab, amounts[k], need, tol) {
+							continue
+						}
+						buf[0], buf[1], buf[2] = a, b, last(amounts[k], need, tol, ab)
 						consider(buf[:3])
 					}
 				}
@@ -196,12 +213,44 @@ func kind(f Food) string {
 	return strings.ToLower(strings.TrimSpace(k))
 }
 
-// closest returns the amount (of one food's allowed amounts) whose
-// carbohydrate is nearest to restG.
-func closest(amounts []Item, restG float64) Item {
+// over tells that the foods so far (their sums in so) already reach past
+// the carbohydrate target's margin, or the protein's on a protein-aware
+// need: a larger amount, or one more food, cannot fit. Amounts are in
+// rising order, so a loop over them stops there.
+func over(so Item, need Need, tol float64) bool {
+	if so.ChoG >= need.ChoG+tol {
+		return true
+	}
+	return proteinAware(need) && so.ProteinG > need.ProteinG+ProteinTolerance(need.ProteinG)
+}
+
+// short tells that even the largest of the last food's amounts cannot
+// bring the foods so far (their sums in so) up to the carbohydrate
+// target's margin, or the protein's on a protein-aware need: no amount of
+// it fits, so it need not be tried.
+func short(so Item, amounts []Item, need Need, tol float64) bool {
+	most := amounts[len(amounts)-1]
+	if so.ChoG+most.ChoG < need.ChoG-tol {
+		return true
+	}
+	return proteinAware(need) && so.ProteinG+most.ProteinG < need.ProteinG-ProteinTolerance(need.ProteinG)
+}
+
+// last returns the amount (of one food's allowed amounts) that comes
+// nearest to the rest of the target once the foods so far (their sums in
+// so) are counted: the carbohydrate, and on a protein-aware need the
+// protein too, each in parts of its tolerance.
+func last(amounts []Item, need Need, tol float64, so Item) Item {
+	restC := need.ChoG - so.ChoG
+	aware := proteinAware(need)
+	restP, ptol := need.ProteinG-so.ProteinG, ProteinTolerance(need.ProteinG)
 	best, bestD := amounts[0], math.Inf(1)
 	for _, a := range amounts {
-		if d := math.Abs(a.ChoG - restG); d < bestD {
+		d := math.Abs(a.ChoG-restC) / tol
+		if aware {
+			d += math.Abs(a.ProteinG-restP) / ptol
+		}
+		if d < bestD {
 			best, bestD = a, d
 		}
 	}

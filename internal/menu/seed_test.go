@@ -106,8 +106,9 @@ var amountG = regexp.MustCompile(`= (?:([0-9.]+) (?:g|ml)|about ([0-9]+) g cooke
 // A sample of suggestions made from the starter list, read back as text
 // and checked against the table's figures: each food's grams as weighed
 // times its carbohydrate per 100 g add up to the feed within the
-// tolerance (plus the rounding of the printed grams), and a cooked weight
-// is the uncooked weight times the food's yield.
+// tolerance (plus the rounding of the printed grams), their protein adds
+// up to the feed's protein target within ProteinTolerance where one is set,
+// and a cooked weight is the uncooked weight times the food's yield.
 func TestSeedSuggestionsAgainstTheTable(t *testing.T) {
 	rows := loadSeed(t)
 	foods := make([]Food, len(rows))
@@ -117,14 +118,19 @@ func TestSeedSuggestionsAgainstTheTable(t *testing.T) {
 		byName[r.Food.Name] = r.Food
 	}
 	rng := rand.New(rand.NewSource(9))
-	checked := 0
+	checked, withProtein := 0, 0
 	for i := 0; i < 60; i++ {
 		need := Need{ChoG: 20 + rng.Float64()*130, LowFibre: rng.Intn(3) == 0, Meal: rng.Intn(2) == 0}
+		if rng.Intn(2) == 0 {
+			// A meal's protein is about 0.3 g/kg (ACSM/AND/DC 2016): some
+			// 15–35 g for athletes of 50–115 kg; a snack about half.
+			need.ProteinG = 10 + rng.Float64()*30
+		}
 		s, ok := Suggest(foods, need)
 		if !ok {
 			continue
 		}
-		sum := 0.0
+		sum, protein := 0.0, 0.0
 		for _, part := range strings.Split(s.Text(), "; ") {
 			name, _, _ := strings.Cut(part, ": ")
 			f, ok := byName[name]
@@ -143,13 +149,63 @@ func TestSeedSuggestionsAgainstTheTable(t *testing.T) {
 				}
 			}
 			sum += weighed * f.ChoPer100 / 100
+			protein += weighed * f.ProtPer100 / 100
 		}
 		if d := math.Abs(sum - need.ChoG); d > Tolerance(need.ChoG)+1.5 {
 			t.Errorf("%q gives %.1f g by the table for a %.1f g feed", s.Text(), sum, need.ChoG)
 		}
+		if need.ProteinG > 0 {
+			withProtein++
+			if d := math.Abs(protein - need.ProteinG); d > ProteinTolerance(need.ProteinG)+0.5 {
+				t.Errorf("%q gives %.1f g of protein by the table for a %.1f g target", s.Text(), protein, need.ProteinG)
+			}
+		}
 		checked++
 	}
-	if checked < 50 {
-		t.Fatalf("only %d of 60 feeds had a suggestion", checked)
+	if checked < 50 || withProtein < 20 {
+		t.Fatalf("only %d of 60 feeds had a suggestion, %d of them with a protein target", checked, withProtein)
+	}
+}
+
+// A dinner that asks for 80 g of carbohydrate and 30 g of protein (about
+// 0.3 g/kg for a 100 kg athlete at a meal, ACSM/AND/DC 2016) from the
+// starter list: the suggestion keeps to both within their margins by the
+// IFCT 2017 figures of the seed list (testdata/ifct2017/seed.csv), and is
+// no more than three foods. Vegetarian and vegan clients' dinners meet it without a food
+// that breaks their need.
+func TestDinnerMeetsProteinFromTheTable(t *testing.T) {
+	rows := loadSeed(t)
+	foods := make([]Food, len(rows))
+	for i, r := range rows {
+		foods[i] = r.Food
+	}
+	for _, needs := range [][]string{nil, {"vegetarian"}, {"vegan"}} {
+		need := Options{Needs: needs}.apply(Need{ChoG: 80, ProteinG: 30, Meal: true})
+		s, ok := Suggest(foods, need)
+		if !ok {
+			t.Fatalf("%v: no dinner for 80 g carbohydrate and 30 g protein", needs)
+		}
+		var cho, prot float64
+		for _, it := range s.Items {
+			cho += it.Portions * it.Food.PortionG * it.Food.ChoPer100 / 100
+			prot += it.Portions * it.Food.PortionG * it.Food.ProtPer100 / 100
+			if len(needs) > 0 && Breaks(it.Food, needs) {
+				t.Errorf("%v: %s breaks the need", needs, it.Food.Name)
+			}
+		}
+		t.Logf("%v: %s — %.1f g carbohydrate, %.1f g protein", needs, s.Text(), cho, prot)
+		if math.Abs(cho-80) > Tolerance(80) || math.Abs(prot-30) > ProteinTolerance(30) {
+			t.Errorf("%v: %s gives %.1f g carbohydrate and %.1f g protein, want 80 ± %g and 30 ± %g",
+				needs, s.Text(), cho, prot, Tolerance(80), ProteinTolerance(30))
+		}
+		if len(s.Items) > 3 {
+			t.Errorf("%v: %d foods in one dinner", needs, len(s.Items))
+		}
+	}
+	if got := ProteinTolerance(30); got != 6 {
+		t.Errorf("ProteinTolerance(30) = %g, want 6 (20 %%)", got)
+	}
+	if got := ProteinTolerance(12); got != 5 {
+		t.Errorf("ProteinTolerance(12) = %g, want 5 (the floor)", got)
 	}
 }
