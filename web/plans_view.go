@@ -184,12 +184,16 @@ type PlanView struct {
 
 	Versions []VersionView
 
-	Carry          []Carried         // values typed for a version that can no longer change
-	Theirs         map[string]string // after a refused save: the saved value of each input where it differs from the one typed
-	Form           forms.Form        // override inputs: what the user typed, and errors
-	Notice         string            // e.g. the concurrent-edit message
-	Tolerance      string            // the food suggestions' tolerance, in words
-	SuggestionNote string            // e.g. that suggestions are gluten-free for a recorded caution
+	Carry     []Carried         // values typed for a version that can no longer change
+	Theirs    map[string]string // after a refused save: the saved value of each input where it differs from the one typed
+	Form      forms.Form        // override inputs: what the user typed, and errors
+	Notice    string            // e.g. the concurrent-edit message
+	Tolerance string            // the food suggestions' tolerance, in words
+	// ProteinTolerance is the suggestions' margin on a feed's protein, in
+	// words; ProteinFrom the smallest protein target held to it.
+	ProteinTolerance string
+	ProteinFrom      string
+	SuggestionNote   string // e.g. that suggestions are gluten-free for a recorded caution
 
 	// SetAside lists the dietitian's food choices kept with the version
 	// for feeds it no longer has; SetAsideURL removes them (a draft only).

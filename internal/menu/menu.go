@@ -9,6 +9,7 @@ package menu
 import (
 	"fmt"
 	"math"
+	"regexp"
 	"strings"
 )
 
@@ -117,35 +118,68 @@ type Suggestion struct {
 	ProteinToleranceG float64
 }
 
-// Text is a one-line description such as "Banana: 2 × 1 medium, peeled =
-// 200 g; White rice, boiled: 1.5 × 1 cup, cooked = about 230 g cooked (90 g
-// uncooked); Cow's milk, whole: 1 × 1 glass = 250 ml".
+// Text is the suggestion in one short line, as a dietitian writes it: each
+// food in its household measure with the amount as eaten, such as
+// "White rice, boiled: 1½ × 1 cup, cooked (230 g); Cow's milk, whole:
+// 1 glass (250 ml); Banana: 2 × 1 medium, peeled (200 g)". Short, because
+// a day of meals of three foods each is printed on the sheet, one line a
+// meal.
 func (s Suggestion) Text() string {
 	parts := make([]string, len(s.Items))
 	for i, it := range s.Items {
-		parts[i] = fmt.Sprintf("%s: %s × %s = %s", it.Food.Name, formatPortions(it.Portions), it.Food.PortionName, Amount(it.Food, it.Grams))
+		parts[i] = it.Food.Name + ": " + Measure(it.Food, it.Portions)
 	}
 	return strings.Join(parts, "; ")
 }
 
-// Amount says an amount of a food as a person measures it: ml for a drink
-// (1 g taken as 1 ml, near enough for the drinks of a plan), the cooked
-// weight (rounded to 10 g) with the weight as weighed for a food eaten
-// cooked, else grams.
-func Amount(f Food, grams float64) string {
-	g := formatPortions(math.Round(grams))
-	switch {
-	case f.Liquid:
-		return g + " ml"
-	case f.CookedYield > 0:
-		return fmt.Sprintf("about %.0f g cooked (%s g uncooked)", math.Round(grams*f.CookedYield/10)*10, g)
+// portionSize is a portion name's own size in brackets: "(500 ml)" of
+// "1 bottle (500 ml)".
+var portionSize = regexp.MustCompile(`\s*\([^()]*\)$`)
+
+// Measure says an amount of a food in household portions with the amount
+// as eaten in brackets: "2 × 1 medium, peeled (200 g)", "1 glass (250 ml)".
+// One portion whose name gives its size says no more ("1 bar (45 g)"); more
+// portions leave the size of one out ("2 × 1 bottle (1000 ml)").
+func Measure(f Food, portions float64) string {
+	name := f.PortionName
+	if portions == 1 {
+		if portionSize.MatchString(name) {
+			return name
+		}
+		return name + " (" + Amount(f, portions*f.PortionG) + ")"
 	}
-	return g + " g"
+	return formatPortions(portions) + " × " + portionSize.ReplaceAllString(name, "") + " (" + Amount(f, portions*f.PortionG) + ")"
 }
 
+// Amount says an amount of a food as eaten: ml for a drink (1 g taken as
+// 1 ml, near enough for the drinks of a plan), the cooked weight rounded to
+// 10 g for a food eaten cooked ("g cooked" unless its portion name already
+// says cooked), else grams.
+func Amount(f Food, grams float64) string {
+	switch {
+	case f.Liquid:
+		return fmt.Sprintf("%.0f ml", math.Round(grams))
+	case f.CookedYield > 0:
+		cooked := fmt.Sprintf("%.0f g", math.Round(grams*f.CookedYield/10)*10)
+		if !strings.Contains(strings.ToLower(f.PortionName), "cooked") {
+			cooked += " cooked"
+		}
+		return cooked
+	}
+	return fmt.Sprintf("%.0f g", math.Round(grams))
+}
+
+// formatPortions writes a number of portions in half steps as a person
+// does: 2, ½, 1½.
 func formatPortions(p float64) string {
-	if p == math.Trunc(p) {
+	whole, half := math.Trunc(p), p-math.Trunc(p)
+	switch {
+	case half == 0:
 		return fmt.Sprintf("%.0f", p)
+	case half == 0.5 && whole == 0:
+		return "½"
+	case half == 0.5:
+		return fmt.Sprintf("%.0f½", whole)
 	}
 	return fmt.Sprintf("%.1f", p)
 }

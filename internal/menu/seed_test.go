@@ -99,16 +99,34 @@ func TestSeedListFromTheTable(t *testing.T) {
 	}
 }
 
-// amountG reads the grams as weighed back from a suggestion's amount:
-// "= 250 ml", "= 200 g", or "= about 230 g cooked (90 g uncooked)".
-var amountG = regexp.MustCompile(`= (?:([0-9.]+) (?:g|ml)|about ([0-9]+) g cooked \(([0-9.]+) g uncooked\))$`)
+// suggestionPart reads a suggestion's food back: its name, the number of
+// portions ("2 ×", "1½ ×", none for one) and the amount in brackets,
+// "(250 ml)", "(200 g)" or "(230 g cooked)" (or none when the portion
+// name gives its size).
+var suggestionPart = regexp.MustCompile(`^(.+?): (?:([0-9]*½?) × )?(.+?)(?: \(([0-9]+) (ml|g|g cooked)\))?$`)
+
+// readPortions reads "2", "½" or "1½".
+func readPortions(s string) float64 {
+	if s == "" {
+		return 1
+	}
+	n := 0.0
+	if w := strings.TrimSuffix(s, "½"); w != "" {
+		n, _ = strconv.ParseFloat(w, 64)
+	}
+	if strings.HasSuffix(s, "½") {
+		n += 0.5
+	}
+	return n
+}
 
 // A sample of suggestions made from the starter list, read back as text
 // and checked against the table's figures: each food's grams as weighed
-// times its carbohydrate per 100 g add up to the feed within the
-// tolerance (plus the rounding of the printed grams), their protein adds
-// up to the feed's protein target within ProteinTolerance where one is set,
-// and a cooked weight is the uncooked weight times the food's yield.
+// (its portions times the portion's grams) times its carbohydrate per
+// 100 g add up to the feed within the tolerance, their protein adds up to
+// the feed's protein target within ProteinTolerance where one is set, and
+// the amount in brackets is those grams as eaten (a cooked weight is the
+// uncooked weight times the food's yield, to the nearest 10 g).
 func TestSeedSuggestionsAgainstTheTable(t *testing.T) {
 	rows := loadSeed(t)
 	foods := make([]Food, len(rows))
@@ -132,31 +150,36 @@ func TestSeedSuggestionsAgainstTheTable(t *testing.T) {
 		}
 		sum, protein := 0.0, 0.0
 		for _, part := range strings.Split(s.Text(), "; ") {
-			name, _, _ := strings.Cut(part, ": ")
-			f, ok := byName[name]
-			if !ok {
-				t.Fatalf("%q: %q is not on the list", s.Text(), name)
-			}
-			m := amountG.FindStringSubmatch(part)
+			m := suggestionPart.FindStringSubmatch(part)
 			if m == nil {
-				t.Fatalf("%q: amount not understood", part)
+				t.Fatalf("%q: not understood", part)
 			}
-			weighed, _ := strconv.ParseFloat(m[1]+m[3], 64)
-			if m[2] != "" {
-				cooked, _ := strconv.ParseFloat(m[2], 64)
-				if math.Abs(cooked-weighed*f.CookedYield) > 5.5 {
-					t.Errorf("%q: %g g cooked from %g g at a yield of %g", part, cooked, weighed, f.CookedYield)
+			f, ok := byName[m[1]]
+			if !ok {
+				t.Fatalf("%q: %q is not on the list", s.Text(), m[1])
+			}
+			// The grams as weighed in the table: portions × the portion's
+			// grams; the amount in brackets is that, as eaten.
+			weighed := readPortions(m[2]) * f.PortionG
+			if m[4] != "" {
+				said, _ := strconv.ParseFloat(m[4], 64)
+				asEaten := weighed
+				if f.CookedYield > 0 && !f.Liquid {
+					asEaten = weighed * f.CookedYield
+				}
+				if math.Abs(said-asEaten) > 5.5 {
+					t.Errorf("%q: says %g %s for %g g as weighed (yield %g)", part, said, m[5], weighed, f.CookedYield)
 				}
 			}
 			sum += weighed * f.ChoPer100 / 100
 			protein += weighed * f.ProtPer100 / 100
 		}
-		if d := math.Abs(sum - need.ChoG); d > Tolerance(need.ChoG)+1.5 {
+		if d := math.Abs(sum - need.ChoG); d > Tolerance(need.ChoG)+1e-6 {
 			t.Errorf("%q gives %.1f g by the table for a %.1f g feed", s.Text(), sum, need.ChoG)
 		}
 		if need.ProteinG > 0 {
 			withProtein++
-			if d := math.Abs(protein - need.ProteinG); d > ProteinTolerance(need.ProteinG)+0.5 {
+			if d := math.Abs(protein - need.ProteinG); d > ProteinTolerance(need.ProteinG)+1e-6 {
 				t.Errorf("%q gives %.1f g of protein by the table for a %.1f g target", s.Text(), protein, need.ProteinG)
 			}
 		}

@@ -30,8 +30,9 @@ func TestFibreTagsFromTheTable(t *testing.T) {
 	}
 }
 
-// Amounts as a person measures them: ml for a drink, the cooked weight for
-// a food eaten cooked (2.6 g boiled rice per g uncooked, the seeded yield),
+// Amounts as a person measures them: household portions, with ml for a
+// drink, the cooked weight for a food eaten cooked (2.6 g boiled rice per g
+// uncooked, the seeded yield: 90 g uncooked is 234 g, said as 230 g),
 // grams otherwise; the everyday name is what the suggestion says.
 func TestSuggestionSaysAmountsAsEaten(t *testing.T) {
 	rice := ifctRow(t, "A015", "1 cup, cooked", 60)
@@ -41,10 +42,26 @@ func TestSuggestionSaysAmountsAsEaten(t *testing.T) {
 	banana := ifctRow(t, "E012", "1 medium, peeled", 100)
 	banana.SourceName, banana.Name = banana.Name, "Banana"
 	s := Suggestion{Items: []Item{item(rice, 1.5), item(milk, 1), item(banana, 2)}}
-	want := "White rice, boiled: 1.5 × 1 cup, cooked = about 230 g cooked (90 g uncooked); " +
-		"Cow's milk, whole: 1 × 1 glass = 250 ml; Banana: 2 × 1 medium, peeled = 200 g"
+	want := "White rice, boiled: 1½ × 1 cup, cooked (230 g); " +
+		"Cow's milk, whole: 1 glass (250 ml); Banana: 2 × 1 medium, peeled (200 g)"
 	if got := s.Text(); got != want {
 		t.Fatalf("got  %q\nwant %q", got, want)
+	}
+	// A portion whose name gives its size says it once; more portions give
+	// the amount of them all; a food eaten cooked whose portion name does
+	// not say so is given "g cooked".
+	drink := Food{Name: "Sports drink", PortionName: "1 bottle (500 ml)", PortionG: 500, Liquid: true}
+	dal := Food{Name: "Moong dal, boiled", PortionName: "40 g dry", PortionG: 40, CookedYield: 2.5}
+	for _, c := range []struct {
+		f    Food
+		p    float64
+		want string
+	}{
+		{drink, 1, "1 bottle (500 ml)"}, {drink, 2, "2 × 1 bottle (1000 ml)"}, {dal, 0.5, "½ × 40 g dry (50 g cooked)"},
+	} {
+		if got := Measure(c.f, c.p); got != c.want {
+			t.Errorf("Measure(%s, %g) = %q, want %q", c.f.Name, c.p, got, c.want)
+		}
 	}
 	// A dietitian's line is given as eaten: 230 g of boiled rice is 88.5 g
 	// uncooked, so 69.2 g carbohydrate at 78.24 g per 100 g (A015).

@@ -262,22 +262,22 @@ func TestFoodSuggestionsAddUp(t *testing.T) {
 	for _, f := range foods {
 		byName[f.Name] = f
 	}
-	rows, err := a.st.Pool.Query(context.Background(), `SELECT cho_g::float8, suggestion FROM plan_feeds WHERE plan_version_id = $1 AND kind = 'day'`, v.ID)
+	rows, err := a.st.Pool.Query(context.Background(), `SELECT cho_g::float8, protein_g::float8, label, suggestion FROM plan_feeds WHERE plan_version_id = $1 AND kind = 'day'`, v.ID)
 	if err != nil {
 		t.Fatal(err)
 	}
 	defer rows.Close()
-	checked := 0
+	checked, withProtein := 0, 0
 	for rows.Next() {
-		var cho float64
-		var text string
-		if err := rows.Scan(&cho, &text); err != nil {
+		var cho, prot float64
+		var label, text string
+		if err := rows.Scan(&cho, &prot, &label, &text); err != nil {
 			t.Fatal(err)
 		}
-		if cho <= 0 {
+		if cho <= 0 || text == menu.NoFit {
 			continue
 		}
-		sum := 0.0
+		sum, protein := 0.0, 0.0
 		for _, part := range strings.Split(text, "; ") {
 			m := suggestionPart.FindStringSubmatch(part)
 			if m == nil {
@@ -287,17 +287,25 @@ func TestFoodSuggestionsAddUp(t *testing.T) {
 			if !ok {
 				t.Fatalf("suggested food %q is not on the list", m[1])
 			}
-			grams, _ := strconv.ParseFloat(m[2]+m[3], 64)
+			grams := suggestionPortions(m[2]) * f.PortionG // as weighed in the table
 			sum += grams * f.CarbohydrateG / 100
+			protein += grams * f.ProteinG / 100
 		}
-		// Grams are printed whole, so allow their rounding on top of the tolerance.
-		if d := math.Abs(sum - cho); d > menu.Tolerance(cho)+1.5 {
+		if d := math.Abs(sum - cho); d > menu.Tolerance(cho)+1e-6 {
 			t.Errorf("feed of %v g: %q gives %.1f g", cho, text, sum)
+		}
+		// A feed outside exercise with a protein target gets its protein
+		// too, within its margin.
+		if !strings.Contains(label, "during") && prot >= menu.MinProteinAwareG {
+			withProtein++
+			if d := math.Abs(protein - prot); d > menu.ProteinTolerance(prot)+1e-6 {
+				t.Errorf("%s of %v g protein: %q gives %.1f g", label, prot, text, protein)
+			}
 		}
 		checked++
 	}
-	if checked < 20 {
-		t.Fatalf("only %d feeds had suggestions", checked)
+	if checked < 20 || withProtein < 10 {
+		t.Fatalf("only %d feeds had suggestions, %d of them with protein checked", checked, withProtein)
 	}
 }
 

@@ -99,10 +99,26 @@ func TestConcurrentEditConflict(t *testing.T) {
 	}
 }
 
-// suggestionPart reads "Name: 2.5 × portion = 250 g" (or "= 500 ml", or
-// "= about 230 g cooked (90 g uncooked)") back into a name and the grams as
-// weighed in the composition table.
-var suggestionPart = regexp.MustCompile(`^(.+): [0-9.]+ × .+ = (?:([0-9.]+) (?:g|ml)|about [0-9]+ g cooked \(([0-9.]+) g uncooked\))$`)
+// suggestionPart reads a suggestion's food, "Name: 2 × portion (250 g)"
+// (or "(500 ml)", "(230 g cooked)"; "1½ ×"; no "n ×" for one portion; no
+// amount when the portion name gives its size), back into the name and the
+// number of portions.
+var suggestionPart = regexp.MustCompile(`^(.+?): (?:([0-9]*½?) × )?(.+?)(?: \(([0-9]+) (?:ml|g|g cooked)\))?$`)
+
+// suggestionPortions reads "2", "½" or "1½" (one when empty).
+func suggestionPortions(s string) float64 {
+	if s == "" {
+		return 1
+	}
+	n := 0.0
+	if w := strings.TrimSuffix(s, "½"); w != "" {
+		n, _ = strconv.ParseFloat(w, 64)
+	}
+	if strings.HasSuffix(s, "½") {
+		n += 0.5
+	}
+	return n
+}
 
 func TestDraftBodyMassRecomputes(t *testing.T) {
 	a := newApp(t)

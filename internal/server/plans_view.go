@@ -46,12 +46,13 @@ func (s *Server) planHead(c store.Client, p store.Plan, v store.PlanVersion, ver
 		ClientID: c.ID, ClientName: c.Name, ClientCautions: c.Cautions, PlanID: p.ID, Title: p.Title,
 		KindLabel: kindLabel(p.Kind), Protocol: p.Protocol, TimeZone: plan.TimeZone,
 		Version: v.Version, Status: v.Status, Revision: v.Revision, Editable: v.Status == store.PlanDraft,
-		ActionURL:  web.Path("clients", c.ID, "plans", p.ID, "versions", v.Version),
-		ReviseURL:  web.Path("clients", c.ID, "plans", p.ID, "revise"),
-		DiscardURL: web.Path("clients", c.ID, "plans", p.ID, "versions", v.Version, "discard"),
-		Caution:    plan.Caution,
-		Tolerance:  "±10 % or ±5 g, whichever is larger",
-		MassName:   massName, FatName: fatName, MassUnitName: massUnitName,
+		ActionURL:        web.Path("clients", c.ID, "plans", p.ID, "versions", v.Version),
+		ReviseURL:        web.Path("clients", c.ID, "plans", p.ID, "revise"),
+		DiscardURL:       web.Path("clients", c.ID, "plans", p.ID, "versions", v.Version, "discard"),
+		Caution:          plan.Caution,
+		Tolerance:        "±10 % or ±5 g, whichever is larger",
+		ProteinTolerance: "±20 % or ±5 g, whichever is larger", ProteinFrom: web.Num(menu.MinProteinAwareG, 0),
+		MassName: massName, FatName: fatName, MassUnitName: massUnitName,
 	}
 	if pv.Caution == "" {
 		pv.Caution = fuel.Caution

@@ -315,7 +315,7 @@ type feedRow struct {
 // feedTable prints feeds: time, occasion, carbohydrate, protein, suggestion.
 func (d *doc) feedTable(rows []feedRow, timeW float64) {
 	f := d.f
-	labelW, choW, protW := 28.0, 17.0, 14.0
+	labelW, choW, protW := 25.0, 17.0, 14.0
 	sugX := marginX + timeW + labelW + choW + protW + 3
 	sugW := marginX + d.w - sugX
 	// The column heads print once a page: every feed table has the same columns.
@@ -338,7 +338,11 @@ func (d *doc) feedTable(rows []feedRow, timeW float64) {
 	}
 	head()
 	for _, r := range rows {
-		d.font("", 7.6)
+		// The foods in a type a little smaller than the figures', so that
+		// a meal of three foods mostly takes one line and a plan of many
+		// days stays within the sheet's pages.
+		const size = 7.2
+		d.font("", size)
 		sl := d.lines(r.suggestion, sugW)
 		if r.suggestion == "" {
 			sl = []string{""}
@@ -362,7 +366,7 @@ func (d *doc) feedTable(rows []feedRow, timeW float64) {
 			prot = num(r.prot, 0)
 		}
 		d.cell(protW, 3.6, d.tr(prot), "", 0, "R", false)
-		d.font("", 7.6)
+		d.font("", size)
 		d.color(colMuted)
 		for i, l := range sl {
 			f.SetXY(sugX, y+float64(i)*3.4+0.2)
@@ -388,7 +392,7 @@ func (d *doc) feeds() {
 	d.heading("Feeds day by day", 8+5+3.6+2*3.8)
 	d.font("", 7.5)
 	d.color(colMuted)
-	d.para("Times in "+d.zone+". Suggestions are examples from the practice's food list that add up to the feed's carbohydrate; swap for foods you know you tolerate. * set by the dietitian (override).", 3.4)
+	d.para("Times in "+d.zone+". Suggestions are examples from the practice's food list that add up to the feed's carbohydrate and, at meals and snacks, its protein; swap for foods you know you tolerate. * set by the dietitian (override).", 3.4)
 	d.color(colInk)
 	var prevAdvice []string
 	for _, day := range p.Days {
