@@ -22,11 +22,14 @@ const ChoicePrefix = "Dietitian’s choice: "
 // loading-day meal is about 4 g/kg, some 300 g of carbohydrate for a 75 kg
 // athlete).
 const (
-	MaxChoiceGrams   = 2000
-	MaxChoiceChoG    = 500
-	MaxChoiceLines   = 4 // foods from the list
-	MaxChoiceFree    = 2 // free lines
-	MaxChoiceTextLen = 200
+	MaxChoiceGrams = 2000
+	MaxChoiceChoG  = 500
+	// MaxChoiceProteinG: 200 g of protein on one line is a slip of the
+	// keyboard too (a large meal of meat brings some 60 g).
+	MaxChoiceProteinG = 200
+	MaxChoiceLines    = 4 // foods from the list
+	MaxChoiceFree     = 2 // free lines
+	MaxChoiceTextLen  = 200
 )
 
 // ChoiceLine is one line of a dietitian's food choice. A food line names a
@@ -90,7 +93,11 @@ func ChoiceText(lines []ChoiceLine) string {
 	parts := make([]string, 0, len(lines))
 	for _, l := range lines {
 		if l.Free {
-			parts = append(parts, fmt.Sprintf("%s (%s g carbohydrate)", l.Name, trimNum(l.ChoG)))
+			if l.ProteinG > 0 {
+				parts = append(parts, fmt.Sprintf("%s (%s g carbohydrate, %s g protein)", l.Name, trimNum(l.ChoG), trimNum(l.ProteinG)))
+			} else {
+				parts = append(parts, fmt.Sprintf("%s (%s g carbohydrate)", l.Name, trimNum(l.ChoG)))
+			}
 		} else {
 			unit := l.Unit
 			if unit == "" {
@@ -120,11 +127,15 @@ type ChoiceCheck struct {
 
 // CheckChoice checks a choice against its feed: the carbohydrate it adds
 // up to against the feed's grams within Tolerance (the margin suggestions
-// keep to), and each food line against the client's dietary need codes
-// with the food's facts as the foods list has them now (byID; a food no
-// longer in the list cannot be checked and is said so). Free lines cannot
-// be checked against needs, which is said when needs are recorded.
-func CheckChoice(lines []ChoiceLine, feedChoG float64, byID map[int64]Food, needCodes []string) []ChoiceCheck {
+// keep to); on a feed whose protein suggestions keep to (feedProteinG of
+// MinProteinAwareG or more; the caller passes 0 for an in-event feed) the
+// protein it adds up to within ProteinTolerance, a free line counting with
+// the protein the dietitian gave it (none given counts as 0 g, and is
+// said); and each food line against the client's dietary need codes with
+// the food's facts as the foods list has them now (byID; a food no longer
+// in the list cannot be checked and is said so). Free lines cannot be
+// checked against needs, which is said when needs are recorded.
+func CheckChoice(lines []ChoiceLine, feedChoG, feedProteinG float64, byID map[int64]Food, needCodes []string) []ChoiceCheck {
 	var out []ChoiceCheck
 	sum := 0.0
 	for _, l := range lines {
@@ -139,6 +150,7 @@ func CheckChoice(lines []ChoiceLine, feedChoG float64, byID map[int64]Food, need
 		out = append(out, ChoiceCheck{"caution", fmt.Sprintf("The chosen food gives %s g of carbohydrate, %s g over the feed’s %s g (more than the ±%s g margin).",
 			trimNum(round1(sum)), trimNum(round1(d)), trimNum(round1(feedChoG)), trimNum(round1(tol)))})
 	}
+	out = append(out, checkProtein(lines, feedProteinG)...)
 	labels := NeedLabels(needCodes)
 	free := false
 	for _, l := range lines {
@@ -172,6 +184,39 @@ func brokenNeeds(f Food, codes []string) []string {
 				out = append(out, n.Label)
 			}
 		}
+	}
+	return out
+}
+
+// checkProtein is CheckChoice's protein check.
+func checkProtein(lines []ChoiceLine, feedProteinG float64) []ChoiceCheck {
+	if !(feedProteinG >= MinProteinAwareG) {
+		return nil
+	}
+	sum := 0.0
+	var uncounted []string
+	for _, l := range lines {
+		sum += l.ProteinG
+		if l.Free && l.ProteinG == 0 {
+			uncounted = append(uncounted, "“"+l.Name+"”")
+		}
+	}
+	tol := ProteinTolerance(feedProteinG)
+	var out []ChoiceCheck
+	switch d := sum - feedProteinG; {
+	case d < -tol:
+		out = append(out, ChoiceCheck{"caution", fmt.Sprintf("The chosen food gives %s g of protein, %s g short of the feed’s %s g (more than the ±%s g margin).",
+			trimNum(round1(sum)), trimNum(round1(-d)), trimNum(round1(feedProteinG)), trimNum(round1(tol)))})
+	case d > tol:
+		out = append(out, ChoiceCheck{"caution", fmt.Sprintf("The chosen food gives %s g of protein, %s g over the feed’s %s g (more than the ±%s g margin).",
+			trimNum(round1(sum)), trimNum(round1(d)), trimNum(round1(feedProteinG)), trimNum(round1(tol)))})
+	}
+	switch len(uncounted) {
+	case 0:
+	case 1:
+		out = append(out, ChoiceCheck{"note", uncounted[0] + " has no protein figure, so it counts as 0 g of protein here: give the line’s protein to count it."})
+	default:
+		out = append(out, ChoiceCheck{"note", strings.Join(uncounted, " and ") + " have no protein figure, so they count as 0 g of protein here: give the lines’ protein to count them."})
 	}
 	return out
 }

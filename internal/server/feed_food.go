@@ -121,6 +121,7 @@ func choiceFoodName(i int) string  { return fmt.Sprintf("food_%d", i) }
 func choiceGramsName(i int) string { return fmt.Sprintf("grams_%d", i) }
 func choiceTextName(i int) string  { return fmt.Sprintf("free_%d", i) }
 func choiceChoName(i int) string   { return fmt.Sprintf("freecho_%d", i) }
+func choiceProtName(i int) string  { return fmt.Sprintf("freeprot_%d", i) }
 
 // choiceValues fills the form with saved lines, or else with the foods of
 // the suggestion (when the suggestion made now is the one stored), so that
@@ -138,6 +139,9 @@ func choiceValues(lines []menu.ChoiceLine, sugg menu.Suggestion, stored string) 
 		case l.Free && nt < menu.MaxChoiceFree:
 			v.Set(choiceTextName(nt), l.Name)
 			v.Set(choiceChoName(nt), strconv.FormatFloat(l.ChoG, 'f', -1, 64))
+			if l.ProteinG > 0 {
+				v.Set(choiceProtName(nt), strconv.FormatFloat(l.ProteinG, 'f', -1, 64))
+			}
 			nt++
 		case !l.Free && nf < menu.MaxChoiceLines:
 			if l.FoodID != 0 {
@@ -222,8 +226,25 @@ func decodeChoice(values url.Values, byID map[int64]menu.Food) ([]menu.ChoiceLin
 			f.Errors.Add(choiceChoName(i), fmt.Sprintf("At most %d g of carbohydrate on one line: check the figure.", menu.MaxChoiceChoG))
 			okCho = false
 		}
-		if okText && okCho {
-			lines = append(lines, menu.ChoiceLine{Free: true, Name: text, ChoG: math.Round(cho*10) / 10})
+		// The protein is optional: without it the line counts as 0 g of
+		// protein, which the checks say.
+		protRaw := strings.TrimSpace(values.Get(choiceProtName(i)))
+		prot, okProt := 0.0, true
+		if protRaw != "" {
+			prot, okProt = decimal(protRaw)
+			switch {
+			case !okProt:
+				f.Errors.Add(choiceProtName(i), "Give the protein as a number of grams, for example 20, or leave it empty.")
+			case prot < 0:
+				f.Errors.Add(choiceProtName(i), "The protein cannot be below 0 g.")
+				okProt = false
+			case prot > menu.MaxChoiceProteinG:
+				f.Errors.Add(choiceProtName(i), fmt.Sprintf("At most %d g of protein on one line: check the figure.", menu.MaxChoiceProteinG))
+				okProt = false
+			}
+		}
+		if okText && okCho && okProt {
+			lines = append(lines, menu.ChoiceLine{Free: true, Name: text, ChoG: math.Round(cho*10) / 10, ProteinG: math.Round(prot*10) / 10})
 		}
 	}
 	if len(lines) == 0 && !f.Has() {
@@ -245,9 +266,15 @@ func choiceNeeds(opts menu.Options) []string {
 // choiceChecks are a saved choice's checks as findings.
 func choiceChecks(lines []menu.ChoiceLine, f feedRef, byID map[int64]menu.Food, opts menu.Options) []web.FindingView {
 	var out []web.FindingView
-	for _, c := range menu.CheckChoice(lines, f.choG, byID, choiceNeeds(opts)) {
+	// An in-event feed is carbohydrate only: its protein is not checked.
+	protein := f.proteinG
+	if strings.Contains(f.label, "during") {
+		protein = 0
+	}
+	for _, c := range menu.CheckChoice(lines, f.choG, protein, byID, choiceNeeds(opts)) {
 		out = append(out, web.FindingView{Level: c.Level, Symbol: web.LevelSymbol(c.Level), Word: web.LevelWord(c.Level),
-			Message: c.Message, Code: "food_choice", Source: "margin ±10 % or ±5 g, whichever is larger (this project’s own, as for suggestions)"})
+			Message: c.Message, Code: "food_choice",
+			Source: "margins: carbohydrate ±10 % or ±5 g, protein ±20 % or ±5 g, whichever is larger (this project’s own, as for suggestions)"})
 	}
 	return out
 }
@@ -318,7 +345,7 @@ func (s *Server) renderFeedFood(w http.ResponseWriter, r *http.Request, status i
 		fv.FoodRows = append(fv.FoodRows, web.FeedFoodRow{N: i + 1, Food: choiceFoodName(i), Grams: choiceGramsName(i)})
 	}
 	for i := range menu.MaxChoiceFree {
-		fv.FreeRows = append(fv.FreeRows, web.FeedFoodRow{N: i + 1, Text: choiceTextName(i), ChoGrams: choiceChoName(i)})
+		fv.FreeRows = append(fv.FreeRows, web.FeedFoodRow{N: i + 1, Text: choiceTextName(i), ChoGrams: choiceChoName(i), ProtGrams: choiceProtName(i)})
 	}
 	if form != nil {
 		fv.Form = *form

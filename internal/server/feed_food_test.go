@@ -246,3 +246,62 @@ func TestFeedFoodBreakingANeedIsSaid(t *testing.T) {
 		mustContain(t, html.EscapeString("Dietitian’s choice: Buffalo milk, whole: 250 ml"),
 			html.EscapeString("Buffalo milk, whole breaks the client’s recorded dietary needs: Lactose-free."))
 }
+
+// A choice is checked against the feed's protein as well as its
+// carbohydrate. Banana to the feed's carbohydrate (IFCT 2017 E012: 23.63 g
+// carbohydrate and 1.23 g protein per 100 g) leaves a meal's protein
+// short, said beside the feed; a line in the dietitian's words counts with
+// the protein given to it, and one without is said to count as 0 g; a bad
+// protein figure is refused beside its box.
+func TestFeedFoodProteinChecked(t *testing.T) {
+	a := newApp(t)
+	b, _ := a.signedIn(store.RoleDietitian)
+	cid, pid := loadingPlan(t, a, b)
+	base := "/clients/" + itoa64(cid) + "/plans/" + itoa64(pid)
+	v := latestVersion(t, a, pid)
+	day := v.Result.Days[0]
+	feed := day.Feeds[0]
+	if feed.ProteinG < menu.MinProteinAwareG || strings.Contains(feed.Label, "during") {
+		t.Fatalf("the first feed (%s, %g g protein) is no meal with a protein target", feed.Label, feed.ProteinG)
+	}
+	path := feedFoodPath(cid, pid, 1, day.Date, 0)
+	banana := foodID(t, a, "E012")
+	grams := strconv.Itoa(int(feed.ChoG / 23.63 * 100))
+	save := func(extra url.Values) response {
+		t.Helper()
+		v := latestVersion(t, a, pid)
+		form := url.Values{"revision": {strconv.Itoa(v.Revision)}, "action": {"save"}, "food_0": {itoa64(banana)}, "grams_0": {grams}}
+		for k, x := range extra {
+			form[k] = x
+		}
+		return b.post(path, form)
+	}
+	save(nil).mustRedirect(t, base+"/versions/1")
+	page := b.get(base + "/versions/1")
+	page.mustContain(t, "g of protein", html.EscapeString("short of the feed’s "+strconv.FormatFloat(feed.ProteinG, 'f', -1, 64)+" g"))
+	b.get(path).mustContain(t, "g of protein", `name="freeprot_0"`)
+
+	// The rest of the protein from a line in the dietitian's words.
+	save(url.Values{"free_0": {"chicken curry"}, "freecho_0": {"0"}, "freeprot_0": {strconv.FormatFloat(feed.ProteinG, 'f', -1, 64)}}).
+		mustRedirect(t, base+"/versions/1")
+	page = b.get(base + "/versions/1")
+	page.mustContain(t, html.EscapeString("chicken curry (0 g carbohydrate, "+strconv.FormatFloat(feed.ProteinG, 'f', -1, 64)+" g protein)"))
+	if strings.Contains(page.body, "g of protein") {
+		t.Error("protein met with the free line's figure, yet a protein check is shown")
+	}
+	// Without a figure the line counts as 0 g, and the page says so.
+	save(url.Values{"free_0": {"chicken curry"}, "freecho_0": {"0"}}).mustRedirect(t, base+"/versions/1")
+	b.get(base+"/versions/1").mustContain(t, html.EscapeString("“chicken curry” has no protein figure, so it counts as 0 g"), "g of protein")
+
+	for _, c := range []struct{ in, msg string }{
+		{"lots", "Give the protein as a number of grams"},
+		{"-3", "The protein cannot be below 0 g."},
+		{"250", "At most 200 g of protein on one line"},
+	} {
+		res := save(url.Values{"free_0": {"chicken curry"}, "freecho_0": {"0"}, "freeprot_0": {c.in}})
+		if res.status != http.StatusUnprocessableEntity {
+			t.Errorf("protein %q: status %d", c.in, res.status)
+		}
+		res.mustContain(t, c.msg, `value="`+html.EscapeString(c.in)+`"`)
+	}
+}
