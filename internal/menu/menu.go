@@ -136,12 +136,25 @@ func (s Suggestion) Text() string {
 // "1 bottle (500 ml)".
 var portionSize = regexp.MustCompile(`\s*\([^()]*\)$`)
 
+// flourFor is a flour's household portion, "flour for 1 chapati", with the
+// size of one in brackets or not.
+var flourFor = regexp.MustCompile(`^flour for 1 (\pL+)(?:\s*\([^()]*\))?$`)
+
 // Measure says an amount of a food in household portions with the amount
 // as eaten in brackets: "2 × 1 medium, peeled (200 g)", "1 glass (250 ml)".
 // One portion whose name gives its size says no more ("1 bar (45 g)"); more
 // portions leave the size of one out ("2 × 1 bottle (1000 ml)").
 func Measure(f Food, portions float64) string {
 	name := f.PortionName
+	// Flour is eaten baked: "2 chapatis (made with 60 g of flour)", not
+	// "2 × flour for 1 chapati", which reads as if the flour were the meal.
+	if m := flourFor.FindStringSubmatch(name); m != nil {
+		bread := m[1]
+		if portions > 1 {
+			bread += "s"
+		}
+		return formatPortions(portions) + " " + bread + " (made with " + Amount(f, portions*f.PortionG) + " of flour)"
+	}
 	if portions == 1 {
 		if portionSize.MatchString(name) {
 			return name

@@ -105,6 +105,10 @@ func TestSeedListFromTheTable(t *testing.T) {
 // name gives its size).
 var suggestionPart = regexp.MustCompile(`^(.+?): (?:([0-9]*½?) × )?(.+?)(?: \(([0-9]+) (ml|g|g cooked)\))?$`)
 
+// flourPart is a flour said as the breads it makes: "Whole-wheat flour
+// (atta): 2 chapatis (made with 60 g of flour)".
+var flourPart = regexp.MustCompile(`^(.+?): ([0-9]*½?) \pL+ \(made with ([0-9]+) g of flour\)$`)
+
 // readPortions reads "2", "½" or "1½".
 func readPortions(s string) float64 {
 	if s == "" {
@@ -150,6 +154,21 @@ func TestSeedSuggestionsAgainstTheTable(t *testing.T) {
 		}
 		sum, protein := 0.0, 0.0
 		for _, part := range strings.Split(s.Text(), "; ") {
+			if m := flourPart.FindStringSubmatch(part); m != nil {
+				// Breads said with their flour: the flour's grams are the
+				// weighed amount, which must be the portions' grams.
+				f, ok := byName[m[1]]
+				if !ok {
+					t.Fatalf("%q: %q is not on the list", s.Text(), m[1])
+				}
+				weighed, _ := strconv.ParseFloat(m[3], 64)
+				if want := readPortions(m[2]) * f.PortionG; math.Abs(weighed-want) > 0.5 {
+					t.Errorf("%q: %g g of flour for %s portions of %g g", part, weighed, m[2], f.PortionG)
+				}
+				sum += weighed * f.ChoPer100 / 100
+				protein += weighed * f.ProtPer100 / 100
+				continue
+			}
 			m := suggestionPart.FindStringSubmatch(part)
 			if m == nil {
 				t.Fatalf("%q: not understood", part)

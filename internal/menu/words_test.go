@@ -52,12 +52,18 @@ func TestSuggestionSaysAmountsAsEaten(t *testing.T) {
 	// not say so is given "g cooked".
 	drink := Food{Name: "Sports drink", PortionName: "1 bottle (500 ml)", PortionG: 500, Liquid: true}
 	dal := Food{Name: "Moong dal, boiled", PortionName: "40 g dry", PortionG: 40, CookedYield: 2.5}
+	// Flour is said as the breads it makes, with the flour's weight: a
+	// chapati takes about 30 g of atta (common practice, the seeded portion).
+	atta := Food{Name: "Whole-wheat flour (atta)", PortionName: "flour for 1 chapati", PortionG: 30}
+	maida := Food{Name: "Refined wheat flour (maida)", PortionName: "flour for 1 flatbread (30 g)", PortionG: 30}
 	for _, c := range []struct {
 		f    Food
 		p    float64
 		want string
 	}{
 		{drink, 1, "1 bottle (500 ml)"}, {drink, 2, "2 × 1 bottle (1000 ml)"}, {dal, 0.5, "½ × 40 g dry (50 g cooked)"},
+		{atta, 2, "2 chapatis (made with 60 g of flour)"}, {atta, 0.5, "½ chapati (made with 15 g of flour)"},
+		{maida, 1, "1 flatbread (made with 30 g of flour)"}, {maida, 1.5, "1½ flatbreads (made with 45 g of flour)"},
 	} {
 		if got := Measure(c.f, c.p); got != c.want {
 			t.Errorf("Measure(%s, %g) = %q, want %q", c.f.Name, c.p, got, c.want)

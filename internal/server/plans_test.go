@@ -279,7 +279,10 @@ func TestFoodSuggestionsAddUp(t *testing.T) {
 		}
 		sum, protein := 0.0, 0.0
 		for _, part := range strings.Split(text, "; ") {
-			m := suggestionPart.FindStringSubmatch(part)
+			m := suggestionFlour.FindStringSubmatch(part)
+			if m == nil {
+				m = suggestionPart.FindStringSubmatch(part)
+			}
 			if m == nil {
 				t.Fatalf("feed of %v g: suggestion %q not understood", cho, text)
 			}

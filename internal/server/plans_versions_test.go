@@ -105,6 +105,10 @@ func TestConcurrentEditConflict(t *testing.T) {
 // number of portions.
 var suggestionPart = regexp.MustCompile(`^(.+?): (?:([0-9]*½?) × )?(.+?)(?: \(([0-9]+) (?:ml|g|g cooked)\))?$`)
 
+// suggestionFlour reads a flour said as the breads it makes, "Whole-wheat
+// flour (atta): 2 chapatis (made with 60 g of flour)": name and portions.
+var suggestionFlour = regexp.MustCompile(`^(.+?): ([0-9]*½?) \pL+ \(made with [0-9]+ g of flour\)$`)
+
 // suggestionPortions reads "2", "½" or "1½" (one when empty).
 func suggestionPortions(s string) float64 {
 	if s == "" {
