@@ -15,6 +15,13 @@ var gelWord = regexp.MustCompile(`(?i)\bgels?\b`)
 // isGel tells a carbohydrate gel by its name, the only sign a foods list has.
 func isGel(f Food) bool { return gelWord.MatchString(f.Name) }
 
+var exerciseWord = regexp.MustCompile(`(?i)\b(gels?|sports drinks?|recovery shakes?|energy drinks?|electrolyte)\b`)
+
+// forExercise tells, by its name, a product made for exercise: a gel, a
+// sports drink, a recovery shake. Meals are made of food (common practice);
+// these products serve the feeds around and during exercise.
+func forExercise(f Food) bool { return exerciseWord.MatchString(f.Name) }
+
 // readyToEat: drinks, foods to eat on the move and the practice's own
 // products need no kitchen; raw staples such as uncooked rice or flour do,
 // and so does a product whose household portion is weighed dry or uncooked
@@ -78,8 +85,8 @@ func candidates(foods []Food, need Need) []Food {
 		if duringExercise(need) && f.ProtPer100+f.FatPer100 > maxOtherPerCho*f.ChoPer100 {
 			continue // a recovery shake or milk is no in-event drink
 		}
-		if need.Meal && isGel(f) {
-			continue // a gel is for exercise, not a meal
+		if need.Meal && forExercise(f) {
+			continue // a gel, sports drink or recovery shake is for exercise, not a meal
 		}
 		if avoid[f.ID] {
 			avoided = append(avoided, f)

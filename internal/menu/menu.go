@@ -81,7 +81,8 @@ type Need struct {
 	ProteinG float64
 	// Meal: a breakfast, lunch, dinner or supper, which is eaten: at least
 	// one of its foods is not a drink (a 600 ml shake read badly as a
-	// dinner), and gels are left out.
+	// dinner), at most one is, and products for exercise (gels, sports
+	// drinks, recovery shakes) are left out.
 	Meal bool
 	// anyFibre: a LowFibre need whose low-fibre foods alone had no fit
 	// tries the whole list.

@@ -74,7 +74,7 @@ func withProteinFoods(pool, foods []Food, need Need) []Food {
 		if need.GlutenFree && f.ContainsGluten || breaks(f, need.Exclude) {
 			continue
 		}
-		if need.OnTheMove && !f.Liquid && !f.Portable {
+		if need.OnTheMove && !f.Liquid && !f.Portable || need.Meal && forExercise(f) {
 			continue
 		}
 		if 0.5*protPerPortion(f) > need.ProteinG+ProteinTolerance(need.ProteinG) {

@@ -97,17 +97,20 @@ func score(items []Item, need Need, tol float64) float64 {
 // fits tells whether a combination meets the target within tol and keeps
 // its drinks within the cap.
 func fits(items []Item, need Need, tol float64) bool {
-	sum, protein, drinks, solids := 0.0, 0.0, 0.0, 0
+	sum, protein, drinks, solids, glasses := 0.0, 0.0, 0.0, 0, 0
 	for _, it := range items {
 		sum += it.ChoG
 		protein += it.ProteinG
 		if it.Food.Liquid {
 			drinks += it.Grams
+			glasses++
 		} else {
 			solids++
 		}
 	}
-	if need.Meal && solids == 0 {
+	// A meal is food with one drink beside it, as a dietitian writes it, not
+	// juice and milk and a shake at one sitting (common practice).
+	if need.Meal && (solids == 0 || glasses > 1) {
 		return false
 	}
 	if proteinAware(need) && math.Abs(protein-need.ProteinG) > ProteinTolerance(need.ProteinG)+1e-9 {
